@@ -1,0 +1,153 @@
+import type { Circuit, Operation } from '../circuit/circuit.js';
+import type { Kernels } from '../engine/kernels.js';
+import type { DensityMatrix } from '../engine/layout.js';
+import { checkMemory, defaultMemoryLimit, MemoryLimitError } from '../engine/memory.js';
+import { runIdeal, runNoisy } from '../engine/run.js';
+import { InputError, ProblemList, type Problem } from '../format/problem.js';
+import type { NoiseProfile } from '../noise/profile.js';
+import { buildProgram, type Program } from '../program/program.js';
+import type { IdealState } from '../results/fidelity.js';
+import { computeFigures, DEFAULT_SEED, type Figures } from '../results/report.js';
+import { scheduleOperations, type Schedule } from '../schedule/schedule.js';
+import { loadCircuit, type LoadedCircuit, type LoadOptions } from './loadCircuit.js';
+import { pauliStringProblem } from '../format/circuitFile.js';
+
+/** Options of one simulation run. */
+export interface SimulateOptions {
+  /** Extra Pauli strings to report besides the circuit's `observe:` (qubit 0 leftmost). */
+  readonly observe?: readonly string[];
+  /** Draw this many shots from the measured distribution. */
+  readonly shots?: number;
+  /** Seed of the shot sampler (default DEFAULT_SEED). */
+  readonly seed?: number;
+  /** Refuse to allocate more than this many bytes (default: half the machine's memory). */
+  readonly maxMemoryBytes?: number;
+  /** Replacement kernels for the noisy run (the reference kernels by default). */
+  readonly kernels?: Kernels;
+}
+
+/** The JSON object of `fray run --json` (the contract's keys plus a few of fray's own). */
+export interface RunResult {
+  readonly name: string | null;
+  readonly file: string;
+  readonly device: string | null;
+  readonly qubits: number;
+  readonly labels?: readonly string[];
+  readonly measured: readonly number[];
+  readonly measured_labels?: readonly string[];
+  readonly schedule: 'asap' | 'alap';
+  readonly duration_ns: number;
+  readonly probabilities: Figures['probabilities'];
+  readonly fidelity: Figures['fidelity'];
+  readonly tvd: number;
+  readonly purity: number;
+  readonly bloch: Figures['bloch'];
+  readonly observables?: Figures['observables'];
+  readonly shots?: number;
+  readonly seed?: number;
+  readonly counts?: Figures['counts'];
+  readonly warnings: readonly string[];
+}
+
+/** Everything one run produced: the stages' data and the result object. */
+export interface Simulation {
+  readonly circuit: Circuit;
+  readonly profile: NoiseProfile;
+  readonly schedule: Schedule;
+  readonly program: Program;
+  readonly rho: DensityMatrix;
+  readonly ideal: IdealState;
+  readonly result: RunResult;
+  readonly warnings: readonly Problem[];
+}
+
+/** Schedules a loaded circuit with its profile's policy and durations. */
+export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedule {
+  const durationOf = (op: Operation): number => {
+    switch (op.kind) {
+      case 'gate':
+        return profile.gateEntry(op.name, op.qubits).duration;
+      case 'reset':
+        return profile.reset.duration;
+      case 'measure':
+        return profile.measureDuration;
+      case 'idle':
+        return op.duration;
+      default:
+        return 0;
+    }
+  };
+  return scheduleOperations(circuit.operations, circuit.register.n, durationOf, profile.schedule);
+}
+
+/** Measured qubits, ascending: those named by `measure` steps, or all qubits when there is none. */
+export function measuredQubits(circuit: Circuit): number[] {
+  const qs = new Set<number>();
+  for (const op of circuit.operations) if (op.kind === 'measure') qs.add(op.qubits[0]!);
+  if (qs.size === 0) return Array.from({ length: circuit.register.n }, (_, i) => i);
+  return [...qs].sort((a, b) => a - b);
+}
+
+/** Runs a loaded circuit: schedule, program, memory check, noisy and ideal runs, figures. Throws InputError on bad input. */
+export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions = {}): Simulation {
+  const { circuit, profile } = loaded;
+  const problems = new ProblemList();
+  for (const w of loaded.warnings) problems.items.push(w);
+  const n = circuit.register.n;
+  const extraObserve = options.observe ?? [];
+  for (const p of extraObserve) {
+    const bad = pauliStringProblem(p, n);
+    if (bad !== undefined) problems.error({ file: '--observe', line: 1, col: 1 }, 'bad-pauli', bad);
+  }
+  const schedule = scheduleCircuit(circuit, profile);
+  const program = buildProgram(circuit, profile, schedule, problems);
+  problems.throwIfErrors();
+  try {
+    checkMemory(n, !program.idealHasReset, options.maxMemoryBytes ?? defaultMemoryLimit());
+  } catch (e) {
+    if (e instanceof MemoryLimitError) {
+      problems.error(circuit.qubitsAt, 'memory-limit', e.message);
+      problems.throwIfErrors();
+    }
+    throw e;
+  }
+  const rho = runNoisy(n, program.noisy, options.kernels);
+  const ideal = runIdeal(n, program.ideal);
+  const measured = measuredQubits(circuit);
+  const observe = [...new Set([...circuit.observe.map((o) => o.value), ...extraObserve])];
+  const figures = computeFigures(rho, ideal, {
+    n,
+    measured,
+    readout: measured.map((q) => profile.qubits[q]!.readout),
+    observe,
+    ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED } : {}),
+  });
+  const labels = circuit.register.labels;
+  const result: RunResult = {
+    name: circuit.name,
+    file: circuit.file,
+    device: profile.name,
+    qubits: n,
+    ...(labels !== null ? { labels } : {}),
+    measured,
+    ...(labels !== null ? { measured_labels: measured.map((q) => labels[q]!) } : {}),
+    schedule: schedule.policy,
+    duration_ns: schedule.duration,
+    probabilities: figures.probabilities,
+    fidelity: figures.fidelity,
+    tvd: figures.tvd,
+    purity: figures.purity,
+    bloch: figures.bloch,
+    ...(figures.observables !== undefined ? { observables: figures.observables } : {}),
+    ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED, counts: figures.counts } : {}),
+    warnings: problems.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`),
+  };
+  return { circuit, profile, schedule, program, rho, ideal, result, warnings: problems.warnings };
+}
+
+/** Reads, validates and runs a circuit file (the one easy call). Throws InputError on bad input. */
+export function simulate(path: string, options: SimulateOptions & LoadOptions = {}): Simulation {
+  return simulateLoaded(loadCircuit(path, options), options);
+}
+
+export { InputError };

@@ -1,0 +1,37 @@
+import { simulate } from '../api/simulate.js';
+import { parseByteSize } from '../engine/memory.js';
+import { renderRunReport } from './runReport.js';
+import { toJson } from './json.js';
+import { makeStyle, wantColor } from './style.js';
+import { UsageError, type CliIO } from './main.js';
+
+/** `fray run FILE`: parses the options, runs the simulation, writes the report or JSON in one piece. */
+export async function runCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
+  const set: Record<string, string> = {};
+  for (const s of (opts['set'] as string[] | undefined) ?? []) {
+    const eq = s.indexOf('=');
+    if (eq <= 0) throw new UsageError(`--set ${s}: expected name=value, e.g. --set theta=0.4`);
+    set[s.slice(0, eq).trim()] = s.slice(eq + 1);
+  }
+  const observe = ((opts['observe'] as string[] | undefined) ?? []).flatMap((s) => s.split(',')).map((s) => s.trim()).filter((s) => s !== '');
+  let maxMemoryBytes: number | undefined;
+  if (opts['maxMemory'] !== undefined) {
+    maxMemoryBytes = parseByteSize(String(opts['maxMemory']));
+    if (maxMemoryBytes === undefined) throw new UsageError(`--max-memory ${String(opts['maxMemory'])}: expected a size such as 512MiB, 2GiB or 1.5GB`);
+  }
+  const sim = simulate(file, {
+    set,
+    ...(opts['device'] !== undefined ? { device: String(opts['device']) } : {}),
+    observe,
+    ...(opts['shots'] !== undefined ? { shots: opts['shots'] as number } : {}),
+    ...(opts['seed'] !== undefined ? { seed: opts['seed'] as number } : {}),
+    ...(maxMemoryBytes !== undefined ? { maxMemoryBytes } : {}),
+  });
+  if (opts['json']) {
+    io.stdout.write(toJson(sim.result) + '\n');
+    return;
+  }
+  const color = wantColor(process.stdout, opts['color'] !== false) && io.stdout === process.stdout;
+  const text = renderRunReport(sim, { top: opts['top'] as number, showState: opts['state'] === true, showSchedule: opts['schedule'] === true }, makeStyle(color));
+  io.stdout.write(text);
+}

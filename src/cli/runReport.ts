@@ -1,0 +1,146 @@
+import type { Simulation } from '../api/simulate.js';
+import { formatDuration } from '../format/duration.js';
+import { qubitName } from '../format/register.js';
+import type { Style } from './style.js';
+
+/** Options of the human-readable run report. */
+export interface ReportOptions {
+  /** How many of the most likely outcomes to list. */
+  readonly top: number;
+  readonly showState: boolean;
+  readonly showSchedule: boolean;
+}
+
+/** Width of the probability bar at probability 1, in characters. */
+const BAR_WIDTH = 24;
+
+/** The terminal report of one run: header, fidelity block, top outcomes, observables, extras. */
+export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Style): string {
+  const r = sim.result;
+  const reg = sim.circuit.register;
+  const lines: string[] = [];
+  const kv = (k: string, v: string) => lines.push(`  ${style.dim(k.padEnd(10))}${v}`);
+  lines.push(style.bold(r.name ?? r.file));
+  kv('file', r.file);
+  kv('device', r.device ?? (sim.profile.qubits.every((q) => !Number.isFinite(q.t1) && !Number.isFinite(q.t2)) ? 'none (noise only as written in the circuit)' : 'inline noise'));
+  const measured = r.measured.map((q) => qubitName(q, reg)).join(' ');
+  kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, measured: ${measured}`);
+  kv('duration', `${formatDuration(r.duration_ns)} (${r.schedule.toUpperCase()} schedule)`);
+  lines.push('');
+
+  lines.push(style.bold('Fidelity with the ideal run'));
+  const fid = (k: string, v: number, note: string) => lines.push(`  ${k.padEnd(26)}${v.toFixed(6)}  ${style.dim(note)}`);
+  fid('state fidelity', r.fidelity.state, 'Uhlmann–Jozsa, squared: (Tr√(√σρ√σ))²');
+  fid('classical fidelity', r.fidelity.classical, '(Σ√(p_ideal·p_measured))², readout included');
+  fid('total variation distance', r.tvd, '½Σ|p_ideal − p_measured|');
+  fid('purity', r.purity, 'Tr ρ² of the noisy state');
+  lines.push('');
+
+  const outcomes = Object.keys(r.probabilities.measured);
+  const ranked = outcomes
+    .map((k) => ({ k, p: Math.max(r.probabilities.ideal[k] ?? 0, r.probabilities.measured[k] ?? 0) }))
+    .sort((a, b) => b.p - a.p || (a.k < b.k ? -1 : 1))
+    .slice(0, opts.top);
+  const total = 1 << r.measured.length;
+  lines.push(style.bold(`Most likely outcomes (${ranked.length} of ${total}; qubit ${qubitName(r.measured[0]!, reg)} leftmost)`));
+  const w = Math.max(7, r.measured.length);
+  lines.push(`  ${style.dim('outcome'.padEnd(w))}  ${style.dim('ideal'.padStart(8))}  ${style.dim('noisy'.padStart(8))}  ${style.dim('measured'.padStart(8))}`);
+  for (const { k } of ranked) {
+    const pi = r.probabilities.ideal[k] ?? 0;
+    const pn = r.probabilities.noisy[k] ?? 0;
+    const pm = r.probabilities.measured[k] ?? 0;
+    const bar = style.cyan('█'.repeat(Math.round(pm * BAR_WIDTH))) + style.dim('·'.repeat(Math.max(0, Math.round(pi * BAR_WIDTH) - Math.round(pm * BAR_WIDTH))));
+    lines.push(`  ${k.padEnd(w)}  ${pi.toFixed(4).padStart(8)}  ${pn.toFixed(4).padStart(8)}  ${pm.toFixed(4).padStart(8)}  ${bar}`);
+  }
+  lines.push(`  ${style.dim(`bar: measured probability (█), shortfall against ideal (·)`)}`);
+
+  if (r.observables !== undefined) {
+    lines.push('');
+    lines.push(style.bold('Pauli expectation values ⟨P⟩ (qubit 0 leftmost)'));
+    const pw = Math.max(6, ...Object.keys(r.observables).map((k) => k.length));
+    lines.push(`  ${style.dim('string'.padEnd(pw))}  ${style.dim('ideal'.padStart(9))}  ${style.dim('noisy'.padStart(9))}`);
+    for (const [k, v] of Object.entries(r.observables)) {
+      lines.push(`  ${k.padEnd(pw)}  ${fmtSigned(v.ideal)}  ${fmtSigned(v.noisy)}`);
+    }
+  }
+
+  if (r.counts !== undefined) {
+    lines.push('');
+    lines.push(style.bold(`Sampled counts (${r.shots} shots, seed ${r.seed})`));
+    const sorted = Object.entries(r.counts).sort((a, b) => b[1] - a[1] || (a[0] < b[0] ? -1 : 1));
+    for (const [k, c] of sorted.slice(0, opts.top)) lines.push(`  ${k.padEnd(w)}  ${String(c).padStart(8)}`);
+    if (sorted.length > opts.top) lines.push(style.dim(`  … ${sorted.length - opts.top} more outcomes`));
+  }
+
+  if (opts.showState) lines.push('', ...renderState(sim, style));
+  if (opts.showSchedule) lines.push('', ...renderSchedule(sim, style));
+
+  if (r.warnings.length > 0) {
+    lines.push('');
+    lines.push(style.yellow(style.bold('Warnings')));
+    for (const w of r.warnings) lines.push(style.yellow(`  ${w}`));
+  }
+  return lines.join('\n') + '\n';
+}
+
+function fmtSigned(x: number): string {
+  const v = Math.abs(x) < 5e-7 ? 0 : x;
+  return (v >= 0 ? ' ' : '') + v.toFixed(6).padStart(8);
+}
+
+/** Largest register whose full density matrix --state prints. */
+export const STATE_PRINT_MAX_QUBITS = 3;
+
+function renderState(sim: Simulation, style: Style): string[] {
+  const r = sim.result;
+  const reg = sim.circuit.register;
+  const lines = [style.bold('Final state, per qubit: Bloch vector (⟨X⟩, ⟨Y⟩, ⟨Z⟩)')];
+  lines.push(`  ${style.dim('qubit'.padEnd(8))}${style.dim('ideal'.padEnd(30))}${style.dim('noisy')}`);
+  const vec = (v: readonly number[]) => `(${v.map((x) => (Math.abs(x) < 5e-7 ? 0 : x).toFixed(4).padStart(7)).join(',')})`;
+  r.bloch.ideal.forEach((b, q) => lines.push(`  ${qubitName(q, reg).padEnd(8)}${vec(b).padEnd(30)}${vec(r.bloch.noisy[q]!)}`));
+  const n = r.qubits;
+  if (n <= STATE_PRINT_MAX_QUBITS) {
+    lines.push('', style.bold('Noisy density matrix ρ (rows and columns in basis order, qubit 0 leftmost)'));
+    const d = 1 << n;
+    const data = sim.rho.data;
+    for (let i = 0; i < d; i++) {
+      const cells: string[] = [];
+      for (let j = 0; j < d; j++) cells.push(complexText(data[2 * (i * d + j)]!, data[2 * (i * d + j) + 1]!).padStart(17));
+      lines.push(`  ${cells.join(' ')}`);
+    }
+  } else {
+    lines.push(style.dim(`  (the full density matrix is printed for up to ${STATE_PRINT_MAX_QUBITS} qubits; use --json and the library API for larger registers)`));
+  }
+  return lines;
+}
+
+/** A complex number in fixed 4-decimal form, entries below 5e-5 shown as 0. */
+function complexText(re: number, im: number): string {
+  const r = Math.abs(re) < 5e-5 ? 0 : re;
+  const i = Math.abs(im) < 5e-5 ? 0 : im;
+  if (i === 0) return r.toFixed(4);
+  if (r === 0) return `${i.toFixed(4)}i`;
+  return `${r.toFixed(4)}${i < 0 ? '−' : '+'}${Math.abs(i).toFixed(4)}i`;
+}
+
+function renderSchedule(sim: Simulation, style: Style): string[] {
+  const reg = sim.circuit.register;
+  const lines = [style.bold(`Schedule (${sim.schedule.policy.toUpperCase()}, times in ns)`)];
+  lines.push(`  ${style.dim('step'.padEnd(6))}${style.dim('operation'.padEnd(14))}${style.dim('qubits'.padEnd(14))}${style.dim('start'.padStart(10))}${style.dim('end'.padStart(10))}`);
+  for (const it of sim.schedule.items) {
+    const op = it.op;
+    const name = op.kind === 'gate' ? op.name : op.kind === 'channel' ? 'noise' : op.kind;
+    lines.push(`  ${String(op.step + 1).padEnd(6)}${name.padEnd(14)}${op.qubits.map((q) => qubitName(q, reg)).join(' ').padEnd(14)}${num(it.start).padStart(10)}${num(it.end).padStart(10)}`);
+  }
+  lines.push('', style.bold('Idle windows (relaxation applies when the profile says idle: thermal)'));
+  if (sim.schedule.idleWindows.length === 0) lines.push(style.dim('  none'));
+  for (const w of sim.schedule.idleWindows) {
+    lines.push(`  qubit ${qubitName(w.qubit, reg).padEnd(6)}${num(w.start).padStart(10)} → ${num(w.end).padStart(10)}  (${formatDuration(w.end - w.start)})`);
+  }
+  lines.push(`  ${style.dim(`total duration ${formatDuration(sim.schedule.duration)}`)}`);
+  return lines;
+}
+
+function num(x: number): string {
+  return String(Number(x.toPrecision(10)));
+}

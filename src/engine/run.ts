@@ -1,0 +1,57 @@
+/**
+ * Execution of an instruction program on an n-qubit register starting in |0…0⟩: the noisy
+ * run on a density matrix, and the ideal run on a state vector for as long as it stays pure.
+ */
+import { createDensityMatrix } from './densityMatrix.js';
+import type { Instruction } from './instruction.js';
+import { referenceKernels, type Kernels } from './kernels.js';
+import type { DensityMatrix, StateVector } from './layout.js';
+import { applyUnitaryToState, createStateVector, resetStateVector, stateToDensityMatrix } from './stateVector.js';
+
+/** The final ideal state: a state vector while the run stayed pure, else a density matrix. */
+export type IdealState = { kind: 'pure'; state: StateVector } | { kind: 'mixed'; rho: DensityMatrix };
+
+/** Final density matrix of `program` (unitaries, Kraus channels, resets in order) applied to |0…0⟩⟨0…0|. */
+export function runNoisy(n: number, program: readonly Instruction[], kernels: Kernels = referenceKernels): DensityMatrix {
+  const rho = createDensityMatrix(n);
+  for (const ins of program) {
+    switch (ins.op) {
+      case 'unitary':
+        kernels.applyUnitary(rho, ins.qubits, ins.matrix);
+        break;
+      case 'channel':
+        kernels.applyKraus(rho, ins.qubits, ins.kraus);
+        break;
+      case 'reset':
+        kernels.reset(rho, ins.qubit);
+        break;
+    }
+  }
+  return rho;
+}
+
+/**
+ * Final state of the ideal `program` (only 'unitary' and 'reset'; a 'channel' throws) applied
+ * to |0…0⟩: on a state vector while pure, switching to a density matrix (via |ψ⟩⟨ψ|) the first
+ * time a reset makes the state mixed; `kernels` serve the mixed part.
+ */
+export function runIdeal(n: number, program: readonly Instruction[], kernels: Kernels = referenceKernels): IdealState {
+  for (const ins of program) {
+    if (ins.op === 'channel') throw new TypeError("runIdeal: the ideal program may not contain a 'channel' instruction");
+  }
+  const psi = createStateVector(n);
+  let rho: DensityMatrix | undefined;
+  for (const ins of program) {
+    if (ins.op === 'unitary') {
+      if (rho) kernels.applyUnitary(rho, ins.qubits, ins.matrix);
+      else applyUnitaryToState(psi, ins.qubits, ins.matrix);
+    } else if (ins.op === 'reset') {
+      if (rho) kernels.reset(rho, ins.qubit);
+      else if (!resetStateVector(psi, ins.qubit)) {
+        rho = stateToDensityMatrix(psi);
+        kernels.reset(rho, ins.qubit);
+      }
+    }
+  }
+  return rho ? { kind: 'mixed', rho } : { kind: 'pure', state: psi };
+}

@@ -1,0 +1,127 @@
+import { suggest } from '../circuit/suggest.js';
+import { parseDuration } from './duration.js';
+import type { ProblemList, SourcePosition } from './problem.js';
+import { describe, type YEntry, type YMap, type YNode, type YScalar } from './yamlTree.js';
+
+/**
+ * Small typed readers over the located YAML tree. Each returns the value, or records a
+ * problem at the node's position and returns undefined, so validation goes on and
+ * reports every problem of a file in one run.
+ */
+
+/** The node as a map, or a problem saying what `what` should be. */
+export function asMap(node: YNode, what: string, problems: ProblemList): YMap | undefined {
+  if (node.kind === 'map') return node;
+  problems.error(node.at, 'expected-map', `${what} must be a map of keys, not ${describe(node)}`);
+  return undefined;
+}
+
+/** Reports every key of `map` that is not in `allowed`, with a did-you-mean suggestion. */
+export function checkKeys(map: YMap, allowed: readonly string[], where: string, problems: ProblemList): void {
+  for (const e of map.entries) {
+    if (!allowed.includes(e.key)) unknownKey(e, allowed, where, problems);
+  }
+}
+
+/** Records an 'unknown key' problem for entry e. */
+export function unknownKey(e: YEntry, allowed: readonly string[], where: string, problems: ProblemList): void {
+  const near = suggest(e.key, allowed);
+  const hint = near !== undefined ? `did you mean '${near}'?` : `expected one of: ${allowed.join(', ')}`;
+  problems.error(e.keyAt, 'unknown-key', `unknown key '${e.key}' in ${where}; ${hint}`);
+}
+
+/** The entry for `key`, if present. */
+export function entryOf(map: YMap, key: string): YEntry | undefined {
+  return map.entries.find((e) => e.key === key);
+}
+
+/** A finite number within [min, max]; `integer` demands a whole number. */
+export function readNumber(
+  node: YNode,
+  what: string,
+  problems: ProblemList,
+  opts: { min?: number; max?: number; integer?: boolean } = {},
+): number | undefined {
+  if (node.kind !== 'scalar' || typeof node.value !== 'number' || !Number.isFinite(node.value)) {
+    problems.error(node.at, 'expected-number', `${what} must be a ${opts.integer ? 'whole number' : 'number'}, not ${describe(node)}`);
+    return undefined;
+  }
+  const v = node.value;
+  if (opts.integer && !Number.isInteger(v)) {
+    problems.error(node.at, 'expected-integer', `${what} must be a whole number, not ${v}`);
+    return undefined;
+  }
+  if (opts.min !== undefined && v < opts.min) {
+    problems.error(node.at, 'out-of-range', `${what} must be at least ${opts.min}, not ${v}`);
+    return undefined;
+  }
+  if (opts.max !== undefined && v > opts.max) {
+    problems.error(node.at, 'out-of-range', `${what} must be at most ${opts.max}, not ${v}`);
+    return undefined;
+  }
+  return v;
+}
+
+/** A probability in [0, 1]. */
+export function readProbability(node: YNode, what: string, problems: ProblemList): number | undefined {
+  if (node.kind !== 'scalar' || typeof node.value !== 'number' || !Number.isFinite(node.value)) {
+    problems.error(node.at, 'expected-probability', `${what} must be a probability between 0 and 1, not ${describe(node)}`);
+    return undefined;
+  }
+  if (node.value < 0 || node.value > 1) {
+    problems.error(node.at, 'out-of-range', `${what} must be a probability between 0 and 1, not ${node.value}`);
+    return undefined;
+  }
+  return node.value;
+}
+
+/** A duration with a unit, in nanoseconds. */
+export function readDuration(node: YNode, what: string, problems: ProblemList): number | undefined {
+  if (node.kind !== 'scalar' || node.value === null || typeof node.value === 'boolean') {
+    problems.error(node.at, 'bad-duration', `${what} must be a duration with a unit such as 35ns or 1.2us, not ${describe(node)}`);
+    return undefined;
+  }
+  const r = parseDuration(String(node.value));
+  if ('error' in r) {
+    problems.error(node.at, 'bad-duration', `${what}: ${r.error}`);
+    return undefined;
+  }
+  return r.ns;
+}
+
+/** true or false. */
+export function readBoolean(node: YNode, what: string, problems: ProblemList): boolean | undefined {
+  if (node.kind === 'scalar' && typeof node.value === 'boolean') return node.value;
+  problems.error(node.at, 'expected-boolean', `${what} must be true or false, not ${describe(node)}`);
+  return undefined;
+}
+
+/** A string (numbers are accepted and turned into their text when `numbersOk`). */
+export function readString(node: YNode, what: string, problems: ProblemList, numbersOk = false): string | undefined {
+  if (node.kind === 'scalar' && typeof node.value === 'string') return node.value;
+  if (numbersOk && node.kind === 'scalar' && typeof node.value === 'number') return String(node.value);
+  problems.error(node.at, 'expected-string', `${what} must be text, not ${describe(node)}`);
+  return undefined;
+}
+
+/** One of the given words. */
+export function readChoice<T extends string>(node: YNode, what: string, choices: readonly T[], problems: ProblemList): T | undefined {
+  if (node.kind === 'scalar' && typeof node.value === 'string' && (choices as readonly string[]).includes(node.value)) {
+    return node.value as T;
+  }
+  const near = node.kind === 'scalar' && typeof node.value === 'string' ? suggest(node.value, choices) : undefined;
+  const hint = near !== undefined ? `; did you mean '${near}'?` : '';
+  problems.error(node.at, 'bad-choice', `${what} must be one of ${choices.map((c) => `'${c}'`).join(', ')}, not ${describe(node)}${hint}`);
+  return undefined;
+}
+
+/** A scalar's text for expression parsing, with the position of its first character. */
+export function scalarText(node: YScalar): string {
+  return node.value === null ? '' : String(node.value);
+}
+
+/** The position `offset` characters into a scalar's content (for expression errors). */
+export function offsetInto(node: YScalar, offset: number): SourcePosition {
+  const startCol = node.at.col + (node.quoted ? 1 : 0);
+  return { ...node.at, col: startCol + offset };
+}

@@ -1,0 +1,182 @@
+import { suggest } from '../circuit/suggest.js';
+import type { CustomChannel, NoiseOverride, Operation, Register } from '../circuit/circuit.js';
+import { readAngle } from './angles.js';
+import { angleNodes, type GateLibrary } from './gateLibrary.js';
+import { readNoiseKinds } from './noiseKindsSpec.js';
+import type { ProblemList, SourcePosition } from './problem.js';
+import { asMap, readDuration, readString } from './read.js';
+import { qubitName } from './register.js';
+import { checkModifiers, splitStep, type StepShape } from './stepShape.js';
+import { readTargets } from './targets.js';
+import { describe, type YEntry, type YNode } from './yamlTree.js';
+
+/** What the step reader needs from the rest of the circuit file. */
+export interface StepContext {
+  readonly register: Register;
+  readonly params: Readonly<Record<string, number>>;
+  readonly gates: GateLibrary;
+  readonly channels: ReadonlyMap<string, CustomChannel>;
+}
+
+/** Reads `steps:` into operations in program order (one per application). */
+export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList): Operation[] {
+  const ops: Operation[] = [];
+  if (node.kind !== 'seq') {
+    problems.error(node.at, 'bad-steps', `'steps' must be a list of steps, not ${describe(node)}`);
+    return ops;
+  }
+  if (node.items.length === 0) {
+    problems.error(node.at, 'bad-steps', `'steps' is empty; expected at least one step`);
+    return ops;
+  }
+  // Qubit → the step (1-based) and position of its measurement: measurement is terminal.
+  const measured = new Map<number, { step: number; at: SourcePosition }>();
+  node.items.forEach((item, index) => {
+    const stepNo = index + 1;
+    const map = asMap(item, `step ${stepNo}`, problems);
+    if (map === undefined) return;
+    const shape = splitStep(map, ctx.gates.names(), `step ${stepNo}`, problems);
+    if (shape === undefined) return;
+    const action = shape.action?.key ?? 'noise';
+    const where = `step ${stepNo} (${action})`;
+    const base = { step: index, at: shape.action?.keyAt ?? map.at, ...readLabel(shape, where, problems) };
+    const afterMeasure = (apps: readonly (readonly number[])[]): boolean => {
+      for (const app of apps) for (const q of app) {
+        const m = measured.get(q);
+        if (m !== undefined) {
+          problems.error(base.at, 'after-measure', `${where} acts on qubit ${qubitName(q, ctx.register)} after its measurement in step ${m.step} (line ${m.at.line}); measurement is terminal in this version`);
+          return true;
+        }
+      }
+      return false;
+    };
+
+    if (shape.action === null) {
+      // Standalone noise step.
+      if (!checkModifiers(shape, ['noise', 'on', 'label'], 'a standalone noise step', where, problems)) return;
+      const noiseEntry = shape.modifiers.get('noise')!;
+      const on = shape.modifiers.get('on');
+      if (on === undefined) {
+        problems.error(noiseEntry.keyAt, 'missing-on', `${where}: a standalone noise step needs 'on' with its qubits`);
+        return;
+      }
+      const nm = asMap(noiseEntry.value, `'noise' of ${where}`, problems);
+      if (nm === undefined) return;
+      const kinds = readNoiseKinds(nm, `${where}`, problems, false);
+      const apps = readTargets(on.value, { kind: 'channel' }, ctx.register, where, problems);
+      if (apps === undefined) return;
+      if (!checkChannelArity(kinds.channel, apps, ctx, where, problems) || afterMeasure(apps)) return;
+      for (const qubits of apps) ops.push({ ...base, kind: 'channel', qubits, noise: { kinds, at: noiseEntry.value.at } });
+      return;
+    }
+
+    const targetNode = shape.action.value;
+    switch (action) {
+      case 'idle': {
+        if (!checkModifiers(shape, ['for', 'label'], 'idle', where, problems)) return;
+        const f = shape.modifiers.get('for');
+        if (f === undefined) {
+          problems.error(shape.action.keyAt, 'missing-for', `${where}: idle needs 'for' with a duration, e.g. 'for: 2us'`);
+          return;
+        }
+        const duration = readDuration(f.value, `'for' of ${where}`, problems);
+        const apps = readTargets(targetNode, { kind: 'each' }, ctx.register, where, problems);
+        if (duration === undefined || apps === undefined) return;
+        for (const qubits of apps) ops.push({ ...base, kind: 'idle', qubits, duration });
+        return;
+      }
+      case 'barrier': {
+        if (!checkModifiers(shape, ['label'], 'barrier', where, problems)) return;
+        const apps = readTargets(targetNode, { kind: 'group' }, ctx.register, where, problems);
+        if (apps === undefined) return;
+        ops.push({ ...base, kind: 'barrier', qubits: apps[0]! });
+        return;
+      }
+      case 'measure': {
+        if (!checkModifiers(shape, ['label'], 'measure', where, problems)) return;
+        const apps = readTargets(targetNode, { kind: 'each' }, ctx.register, where, problems);
+        if (apps === undefined || afterMeasure(apps)) return;
+        for (const qubits of apps) {
+          measured.set(qubits[0]!, { step: stepNo, at: base.at });
+          ops.push({ ...base, kind: 'measure', qubits });
+        }
+        return;
+      }
+      case 'reset': {
+        if (!checkModifiers(shape, ['noise', 'label'], 'reset', where, problems)) return;
+        const noise = readOverride(shape.modifiers.get('noise'), where, false, problems);
+        const apps = readTargets(targetNode, { kind: 'each' }, ctx.register, where, problems);
+        if (noise === null || apps === undefined || afterMeasure(apps)) return;
+        if (noise !== undefined && !checkChannelArity(noise.kinds.channel, apps, ctx, where, problems)) return;
+        for (const qubits of apps) ops.push({ ...base, kind: 'reset', qubits, ...(noise ? { noise } : {}) });
+        return;
+      }
+      default: {
+        const gate = ctx.gates.get(action)!;
+        if (!checkModifiers(shape, ['angle', 'angles', 'noise', 'label'], `gate ${action}`, where, problems)) return;
+        const angleNs = angleNodes(shape.modifiers, gate, shape.action.keyAt, where, problems);
+        const noise = readOverride(shape.modifiers.get('noise'), where, true, problems);
+        const apps = readTargets(targetNode, gate.qubits === 1 ? { kind: 'each' } : { kind: 'tuple', arity: gate.qubits }, ctx.register, where, problems);
+        if (angleNs === undefined || noise === null || apps === undefined || afterMeasure(apps)) return;
+        if (noise !== undefined && !checkChannelArity(noise.kinds.channel, apps, ctx, where, problems)) return;
+        const angles: number[] = [];
+        for (const a of angleNs) {
+          const v = readAngle(a, `angle of ${where}`, ctx.params, problems);
+          if (v === undefined) return;
+          angles.push(v);
+        }
+        const unitary = gate.unitary(angles, problems);
+        if (unitary === undefined) return;
+        for (const qubits of apps) {
+          ops.push({ ...base, kind: 'gate', name: action, qubits, unitary, ...(noise ? { noise } : {}) });
+        }
+      }
+    }
+  });
+  return ops;
+}
+
+function readLabel(shape: StepShape, where: string, problems: ProblemList): { label?: string } {
+  const e = shape.modifiers.get('label');
+  if (e === undefined) return {};
+  const s = readString(e.value, `'label' of ${where}`, problems, true);
+  return s === undefined ? {} : { label: s };
+}
+
+/** A step's `noise:` — undefined when absent, null when invalid, an override otherwise. */
+function readOverride(e: YEntry | undefined, where: string, allowError: boolean, problems: ProblemList): NoiseOverride | undefined | null {
+  if (e === undefined) return undefined;
+  if (e.value.kind === 'scalar' && e.value.value === 'none') return { kinds: {}, at: e.value.at };
+  if (e.value.kind !== 'map') {
+    problems.error(e.value.at, 'bad-noise', `'noise' of ${where} must be a map of noise kinds or 'none', not ${describe(e.value)}`);
+    return null;
+  }
+  const before = problems.errors.length;
+  const kinds = readNoiseKinds(e.value, `'noise' of ${where}`, problems, allowError);
+  return problems.errors.length > before ? null : { kinds, at: e.value.at };
+}
+
+/** A custom channel named in a step must exist and act on 1 qubit or on every qubit of the application. */
+function checkChannelArity(
+  ref: { value: string; at: SourcePosition } | undefined,
+  apps: readonly (readonly number[])[],
+  ctx: StepContext,
+  where: string,
+  problems: ProblemList,
+): boolean {
+  if (ref === undefined) return true;
+  const ch = ctx.channels.get(ref.value);
+  if (ch === undefined) {
+    const near = suggest(ref.value, [...ctx.channels.keys()]);
+    const hint = near !== undefined ? `did you mean '${near}'?` : ctx.channels.size > 0 ? `defined: ${[...ctx.channels.keys()].join(', ')}` : `the circuit defines no 'channels:'`;
+    problems.error(ref.at, 'unknown-channel', `${where}: unknown channel '${ref.value}'; ${hint}`);
+    return false;
+  }
+  for (const app of apps) {
+    if (ch.qubits !== 1 && ch.qubits !== app.length) {
+      problems.error(ref.at, 'channel-arity', `${where}: channel '${ref.value}' acts on ${ch.qubits} qubits but the application has ${app.length}; use a ${app.length}-qubit or a 1-qubit channel`);
+      return false;
+    }
+  }
+  return true;
+}

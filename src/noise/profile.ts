@@ -1,0 +1,250 @@
+import { suggest } from '../circuit/suggest.js';
+import type { Circuit } from '../circuit/circuit.js';
+import type { Loc, NoiseKindsSpec } from '../format/noiseKindsSpec.js';
+import { ProblemList, type SourcePosition } from '../format/problem.js';
+import type { GateEntrySpec, ProfileSpec, QubitEntrySpec, Readout } from '../format/profileSpec.js';
+import { qubitName, resolveQubit } from '../format/register.js';
+
+/** Relaxation and readout of one qubit, resolved (times in ns; Infinity = no relaxation). */
+export interface QubitNoise {
+  readonly t1: number;
+  readonly t2: number;
+  /** Equilibrium excited-state population p_e the qubit relaxes towards. */
+  readonly excited: number;
+  readonly readout: Readout;
+}
+
+/** A gate (or reset) entry after precedence: duration in ns, relaxation during it, noise kinds. */
+export interface GateEntry {
+  readonly duration: number;
+  readonly thermal: boolean;
+  readonly kinds: NoiseKindsSpec;
+}
+
+/** A noise profile resolved against one circuit's register and gate names. */
+export interface NoiseProfile {
+  /** The device's name (the profile's `name:`), if it has one. */
+  readonly name: string | null;
+  /** Per qubit, by index. */
+  readonly qubits: readonly QubitNoise[];
+  readonly idle: 'thermal' | 'none';
+  readonly schedule: 'asap' | 'alap';
+  /** Duration of a measurement, ns. */
+  readonly measureDuration: number;
+  /** The reset entry (thermal is always false: no relaxation during a reset). */
+  readonly reset: GateEntry;
+  /** The entry for gate `name` on `qubits`: tuple entry > name entry > `all`, merged field by field. */
+  gateEntry(name: string, qubits: readonly number[]): GateEntry;
+}
+
+/** The noiseless profile: no relaxation, no readout error, zero durations, ASAP. */
+export function noiselessProfile(n: number): NoiseProfile {
+  const q: QubitNoise = { t1: Infinity, t2: Infinity, excited: 0, readout: { zeroAsOne: 0, oneAsZero: 0 } };
+  const empty: GateEntry = { duration: 0, thermal: false, kinds: {} };
+  return {
+    name: null,
+    qubits: Array.from({ length: n }, () => q),
+    idle: 'none',
+    schedule: 'asap',
+    measureDuration: 0,
+    reset: empty,
+    gateEntry: () => empty,
+  };
+}
+
+interface PartialGate {
+  duration?: Loc<number>;
+  thermal?: Loc<boolean>;
+  kinds: NoiseKindsSpec;
+}
+
+/**
+ * Field-by-field merge of two gate entries, `over` winning; `error` and `depolarizing`
+ * replace each other (the more specific or later one wins).
+ */
+export function mergeGateEntries(base: PartialGate, over: PartialGate): PartialGate {
+  const kinds: NoiseKindsSpec = { ...base.kinds };
+  if (over.kinds.error !== undefined) delete kinds.depolarizing;
+  if (over.kinds.depolarizing !== undefined) delete kinds.error;
+  Object.assign(kinds, stripUndefined(over.kinds));
+  return {
+    ...(over.duration ?? base.duration ? { duration: over.duration ?? base.duration } : {}),
+    ...(over.thermal ?? base.thermal ? { thermal: over.thermal ?? base.thermal } : {}),
+    kinds,
+  };
+}
+
+function stripUndefined<T extends object>(o: T): Partial<T> {
+  const out: Partial<T> = {};
+  for (const [k, v] of Object.entries(o)) if (v !== undefined) (out as Record<string, unknown>)[k] = v;
+  return out;
+}
+
+/** Tolerance on t2 ≤ 2·t1 (relative), so that t2 written as exactly 2·t1 passes. */
+export const T2_LIMIT_TOLERANCE = 1e-12;
+
+/**
+ * Resolves profile specs (device first, then the circuit's inline noise, which wins per
+ * field) against a circuit: qubit and gate keys to indices and names, precedence, and
+ * the physical checks (t2 ≤ 2·t1).
+ */
+export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, problems: ProblemList): NoiseProfile {
+  const reg = circuit.register;
+  let name: string | null = null;
+  let idle: 'thermal' | 'none' = 'thermal';
+  let schedule: 'asap' | 'alap' = 'asap';
+  const qubitAll: QubitEntrySpec = {};
+  const qubitOne: QubitEntrySpec[] = Array.from({ length: reg.n }, () => ({}));
+  let gateAll: PartialGate = { kinds: {} };
+  const byName = new Map<string, PartialGate>();
+  const byTuple = new Map<string, PartialGate>();
+  let measure: PartialGate = { kinds: {} };
+  let reset: PartialGate = { kinds: {} };
+
+  for (const spec of specs) {
+    if (spec.name) name = spec.name.value;
+    if (spec.idle) idle = spec.idle.value;
+    if (spec.schedule) schedule = spec.schedule.value;
+    for (const { key, keyAt, entry } of spec.qubits) {
+      if (key === 'all') {
+        Object.assign(qubitAll, stripUndefined(entry));
+        continue;
+      }
+      const q = resolveQubit(key, reg);
+      if (typeof q !== 'number') {
+        problems.error(keyAt, 'bad-qubit', `qubit entry '${key}': ${q.error}`);
+        continue;
+      }
+      Object.assign(qubitOne[q]!, stripUndefined(entry));
+    }
+    for (const { key, keyAt, entry } of spec.gates) {
+      const where = `gate entry '${key}'`;
+      if (key === 'all') {
+        gateAll = mergeGateEntries(gateAll, entry);
+      } else if (key === 'measure') {
+        if (checkMeasureEntry(entry, where, problems)) measure = mergeGateEntries(measure, entry);
+      } else if (key === 'reset') {
+        if (checkResetEntry(entry, where, problems)) reset = mergeGateEntries(reset, entry);
+      } else {
+        const parts = key.split(' ');
+        const gate = parts[0]!;
+        const arity = circuit.gateArity.get(gate);
+        if (arity === undefined) {
+          const known = [...circuit.gateArity.keys(), 'all', 'measure', 'reset'];
+          const near = suggest(gate, known);
+          problems.error(keyAt, 'unknown-gate', `${where}: no gate named '${gate}' in this circuit or the built-ins${near !== undefined ? `; did you mean '${near}'?` : ''}`);
+          continue;
+        }
+        if (!checkChannelRef(entry.kinds, arity, circuit, where, problems)) continue;
+        if (parts.length === 1) {
+          byName.set(gate, mergeGateEntries(byName.get(gate) ?? { kinds: {} }, entry));
+          continue;
+        }
+        const refs = parts.slice(1);
+        if (refs.length !== arity) {
+          problems.error(keyAt, 'wrong-arity', `${where}: ${gate} acts on ${arity} qubit${arity === 1 ? '' : 's'} but the key names ${refs.length}`);
+          continue;
+        }
+        const qs: number[] = [];
+        for (const r of refs) {
+          const q = resolveQubit(r, reg);
+          if (typeof q !== 'number') problems.error(keyAt, 'bad-qubit', `${where}: ${q.error}`);
+          else qs.push(q);
+        }
+        if (qs.length !== refs.length) continue;
+        if (new Set(qs).size !== qs.length) {
+          problems.error(keyAt, 'repeated-qubit', `${where} names a qubit twice`);
+          continue;
+        }
+        const tk = tupleKey(gate, qs);
+        byTuple.set(tk, mergeGateEntries(byTuple.get(tk) ?? { kinds: {} }, entry));
+      }
+    }
+  }
+  if (gateAll.kinds.channel !== undefined) checkChannelRef(gateAll.kinds, 1, circuit, "gate entry 'all'", problems);
+  if (reset.kinds.channel !== undefined) checkChannelRef(reset.kinds, 1, circuit, "gate entry 'reset'", problems);
+
+  const qubits: QubitNoise[] = qubitOne.map((own, q) => {
+    const e: QubitEntrySpec = { ...qubitAll, ...stripUndefined(own) };
+    const t1 = e.t1?.value ?? Infinity;
+    const t2 = e.t2?.value ?? (Number.isFinite(t1) ? 2 * t1 : Infinity);
+    if (e.t2 !== undefined && t2 > 2 * t1 * (1 + T2_LIMIT_TOLERANCE)) {
+      problems.error(
+        e.t2.at,
+        't2-too-long',
+        `qubit ${qubitName(q, reg)}: t2 = ${e.t2.value} ns exceeds 2·t1 = ${2 * t1} ns, which no physical qubit allows (t2 ≤ 2·t1)`,
+      );
+    }
+    return { t1, t2, excited: e.excited?.value ?? 0, readout: e.readout?.value ?? { zeroAsOne: 0, oneAsZero: 0 } };
+  });
+
+  const finish = (p: PartialGate, thermalDefault: boolean): GateEntry => ({
+    duration: p.duration?.value ?? 0,
+    thermal: p.thermal?.value ?? thermalDefault,
+    kinds: p.kinds,
+  });
+  const cache = new Map<string, GateEntry>();
+  return {
+    name,
+    qubits,
+    idle,
+    schedule,
+    measureDuration: measure.duration?.value ?? 0,
+    reset: { ...finish(reset, false), thermal: false },
+    gateEntry(gate, qs) {
+      const tk = tupleKey(gate, qs);
+      let e = cache.get(tk);
+      if (e === undefined) {
+        let m = gateAll;
+        const named = byName.get(gate);
+        if (named) m = mergeGateEntries(m, named);
+        const tuple = byTuple.get(tk);
+        if (tuple) m = mergeGateEntries(m, tuple);
+        e = finish(m, true);
+        cache.set(tk, e);
+      }
+      return e;
+    },
+  };
+}
+
+function tupleKey(gate: string, qubits: readonly number[]): string {
+  return `${gate} ${qubits.join(' ')}`;
+}
+
+function checkMeasureEntry(e: GateEntrySpec, where: string, problems: ProblemList): boolean {
+  const extra = [e.thermal?.at, ...Object.values(e.kinds).map((k) => k?.at)].filter((x): x is SourcePosition => x !== undefined);
+  if (extra.length > 0) {
+    problems.error(extra[0]!, 'bad-measure-entry', `${where}: a measurement takes only 'duration'; its errors are the qubits' 'readout' probabilities`);
+    return false;
+  }
+  return true;
+}
+
+function checkResetEntry(e: GateEntrySpec, where: string, problems: ProblemList): boolean {
+  if (e.thermal !== undefined) {
+    problems.error(e.thermal.at, 'bad-reset-entry', `${where}: a reset has no relaxation during it; 'thermal' does not apply`);
+    return false;
+  }
+  if (e.kinds.error !== undefined) {
+    problems.error(e.kinds.error.at, 'bad-reset-entry', `${where}: 'error' needs a unitary gate to compare with; give the reset's noise as depolarizing or another kind`);
+    return false;
+  }
+  return true;
+}
+
+function checkChannelRef(kinds: NoiseKindsSpec, arity: number, circuit: Circuit, where: string, problems: ProblemList): boolean {
+  const ref = kinds.channel;
+  if (ref === undefined) return true;
+  const ch = circuit.channels.get(ref.value);
+  if (ch === undefined) {
+    const near = suggest(ref.value, [...circuit.channels.keys()]);
+    problems.error(ref.at, 'unknown-channel', `${where}: unknown channel '${ref.value}'${near !== undefined ? `; did you mean '${near}'?` : circuit.channels.size === 0 ? "; the circuit defines no 'channels:'" : ''}`);
+    return false;
+  }
+  if (ch.qubits !== 1 && ch.qubits !== arity) {
+    problems.error(ref.at, 'channel-arity', `${where}: channel '${ref.value}' acts on ${ch.qubits} qubits; here it needs 1 or ${arity}`);
+    return false;
+  }
+  return true;
+}
