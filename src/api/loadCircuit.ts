@@ -37,7 +37,7 @@ function readText(path: string, at: SourcePosition, what: string, problems: Prob
 /** Parses a noise profile file's text (a device file). */
 export function parseProfileText(text: string, file: string, problems: ProblemList): ProfileSpec | undefined {
   const root = parseYamlTree(text, file, problems);
-  return root === undefined ? undefined : readProfile(root, file, 'the noise profile', problems);
+  return root === undefined ? undefined : readProfile(root, file, 'the noise profile', problems, 'device');
 }
 
 /**

@@ -97,7 +97,8 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
   const extraObserve = options.observe ?? [];
   for (const p of extraObserve) {
     const bad = pauliStringProblem(p, n);
-    if (bad !== undefined) problems.error({ file: '--observe', line: 1, col: 1 }, 'bad-pauli', bad);
+    // Located at the register the string must match.
+    if (bad !== undefined) problems.error(circuit.qubitsAt, 'bad-pauli', `--observe ${p}: ${bad}`);
   }
   const schedule = scheduleCircuit(circuit, profile);
   const program = buildProgram(circuit, profile, schedule, problems);

@@ -97,7 +97,7 @@ function buildProgram(io: CliIO): Command {
       '\nExamples:\n' +
         '  fray run circuits/ghz5.yaml\n' +
         '  fray run circuits/ghz5.yaml --device circuits/devices/bench-line5.yaml --top 4\n' +
-        '  fray run circuits/ramsey-echo.yaml --set wait=4us --schedule\n' +
+        '  fray run circuits/ramsey-echo.yaml --set detune=0.025 --schedule\n' +
         '  fray run circuits/ghz5.yaml --shots 1000 --seed 7 --observe ZZIII,XXXXX --json\n' +
         '\nReport figures: state fidelity is Uhlmann–Jozsa, squared; classical fidelity and total\n' +
         'variation distance compare ideal probabilities with measured ones (readout error included).',

@@ -52,7 +52,7 @@ export function readCircuit(
   }
 
   const ne = entryOf(map, 'noise');
-  const inlineNoise: ProfileSpec | null = ne === undefined ? null : (readProfile(ne.value, file, "the circuit's 'noise'", problems) ?? null);
+  const inlineNoise: ProfileSpec | null = ne === undefined ? null : (readProfile(ne.value, file, "the circuit's 'noise'", problems, 'inline') ?? null);
 
   const channels: Map<string, CustomChannel> = (() => {
     const ce = entryOf(map, 'channels');

@@ -44,6 +44,8 @@ export interface KeyedSpec<T> {
 /** A noise profile as written in a device file or a circuit's inline `noise:` (unresolved). */
 export interface ProfileSpec {
   readonly file: string;
+  /** A device file describes a whole chip: its entries for qubits beyond a smaller circuit are ignored. */
+  readonly source: 'device' | 'inline';
   name?: Loc<string>;
   qubits: KeyedSpec<QubitEntrySpec>[];
   gates: KeyedSpec<GateEntrySpec>[];
@@ -57,11 +59,17 @@ const QUBIT_KEYS = ['t1', 't2', 'excited', 'readout'] as const;
 const GATE_KEYS = ['duration', 'thermal', ...NOISE_KIND_KEYS] as const;
 
 /** Reads a noise profile map (device file root or inline `noise:`) into a ProfileSpec. */
-export function readProfile(node: YNode, file: string, where: string, problems: ProblemList): ProfileSpec | undefined {
+export function readProfile(
+  node: YNode,
+  file: string,
+  where: string,
+  problems: ProblemList,
+  source: 'device' | 'inline',
+): ProfileSpec | undefined {
   const map = asMap(node, where, problems);
   if (map === undefined) return undefined;
   checkKeys(map, PROFILE_KEYS, where, problems);
-  const spec: ProfileSpec = { file, qubits: [], gates: [] };
+  const spec: ProfileSpec = { file, source, qubits: [], gates: [] };
   for (const e of map.entries) {
     switch (e.key) {
       case 'name': {

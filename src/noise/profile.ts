@@ -110,6 +110,7 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
         Object.assign(qubitAll, stripUndefined(entry));
         continue;
       }
+      if (beyondRegister(spec, key, reg)) continue;
       const q = resolveQubit(key, reg);
       if (typeof q !== 'number') {
         problems.error(keyAt, 'bad-qubit', `qubit entry '${key}': ${q.error}`);
@@ -141,6 +142,7 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
           continue;
         }
         const refs = parts.slice(1);
+        if (refs.some((r) => beyondRegister(spec, r, reg))) continue;
         if (refs.length !== arity) {
           problems.error(keyAt, 'wrong-arity', `${where}: ${gate} acts on ${arity} qubit${arity === 1 ? '' : 's'} but the key names ${refs.length}`);
           continue;
@@ -206,6 +208,14 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
       return e;
     },
   };
+}
+
+/**
+ * A device profile may describe more qubits than a circuit uses: its entries for indices
+ * beyond the circuit's register (and that are not labels of it) are skipped, not errors.
+ */
+function beyondRegister(spec: ProfileSpec, ref: string, reg: Circuit['register']): boolean {
+  return spec.source === 'device' && /^\d+$/.test(ref) && Number(ref) >= reg.n && !(reg.labels ?? []).includes(ref);
 }
 
 function tupleKey(gate: string, qubits: readonly number[]): string {

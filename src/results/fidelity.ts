@@ -18,10 +18,8 @@ export const NEGATIVE_EIGENVALUE_TOLERANCE = 1e-9;
  */
 export const SUPPORT_EIGENVALUE_TOLERANCE = 1e-12;
 
-/** The ideal (noise-free) final state: a pure state vector, or a density matrix when the ideal circuit is itself not unitary. */
-export type IdealState =
-  | { readonly kind: 'pure'; readonly state: StateVector }
-  | { readonly kind: 'mixed'; readonly rho: DensityMatrix };
+import type { IdealState } from '../engine/run.js';
+export type { IdealState };
 
 /** Uhlmann–Jozsa fidelity F(ρ, σ) = (Tr √(√σ ρ √σ))² (squared convention) of the noisy ρ with the ideal σ. */
 export function stateFidelity(rho: DensityMatrix, ideal: IdealState): number {

@@ -1,0 +1,84 @@
+import { readdirSync } from 'node:fs';
+import * as math from 'mathjs';
+import { describe, expect, it } from 'vitest';
+import { simulate, type Simulation } from '../../src/api/simulate.js';
+import { denseChannel, denseReset, rhoDiff } from '../engine/dense.js';
+import { embed } from '../engine/dense.js';
+
+/**
+ * The demo circuits run, and their headline numbers are recomputed by independent routes:
+ * the final noisy state by a dense mathjs computation of the same instruction list (full
+ * 2^n × 2^n matrices, independent of fray's kernels), and the ideal answers from textbook
+ * results named beside each check.
+ */
+const DEMOS = readdirSync('circuits').filter((f) => f.endsWith('.yaml'));
+
+/** Dense re-run of the noisy program: ρ → U ρ U†, Σ K ρ K†, reset, with mathjs. */
+function denseRun(sim: Simulation): math.Matrix {
+  const n = sim.program.n;
+  const d = 1 << n;
+  let rho = math.zeros(d, d) as math.Matrix;
+  rho.set([0, 0], math.complex(1, 0));
+  for (const ins of sim.program.noisy) {
+    if (ins.op === 'unitary') {
+      const u = embed(n, ins.qubits, ins.matrix);
+      rho = math.multiply(math.multiply(u, rho), math.ctranspose(u)) as math.Matrix;
+    } else if (ins.op === 'channel') rho = denseChannel(n, ins.qubits, ins.kraus, rho);
+    else rho = denseReset(n, ins.qubit, rho);
+  }
+  return rho;
+}
+
+describe('demo circuits', () => {
+  it('there are at least four demos', () => {
+    expect(DEMOS.length).toBeGreaterThanOrEqual(4);
+  });
+
+  for (const file of DEMOS) {
+    it(`${file} runs, and its noisy state matches an independent dense computation`, () => {
+      const sim = simulate(`circuits/${file}`);
+      const r = sim.result;
+      expect(r.fidelity.state).toBeGreaterThan(0.5);
+      expect(r.fidelity.state).toBeLessThan(1);
+      expect(Object.values(r.probabilities.ideal).reduce((a, b) => a + b, 0)).toBeCloseTo(1, 12);
+      if (sim.program.n <= 5) expect(rhoDiff(sim.rho, denseRun(sim))).toBeLessThan(1e-12);
+    });
+  }
+
+  it('ghz5: the ideal outcomes are 00000 and 11111 with ½ each (GHZ state, common practice)', () => {
+    const r = simulate('circuits/ghz5.yaml').result;
+    const nonzero = Object.entries(r.probabilities.ideal).filter(([, p]) => p > 1e-12);
+    expect(nonzero.map(([k]) => k).sort()).toEqual(['00000', '11111']);
+    for (const [, p] of nonzero) expect(p).toBeCloseTo(0.5, 14);
+    expect(r.observables!['XXXXX']!.ideal).toBeCloseTo(1, 12);
+  });
+
+  it('qpe3: the ideal answer is 011 with probability 1, and ALAP holds up better than ASAP', () => {
+    // Phase estimation of an exactly representable phase φ = 0.011₂ returns its binary digits
+    // with certainty (Nielsen & Chuang §5.2.1).
+    const asap = simulate('circuits/qpe3-asap.yaml').result;
+    const alap = simulate('circuits/qpe3-alap.yaml').result;
+    for (const r of [asap, alap]) expect(r.probabilities.ideal['011']).toBeCloseTo(1, 12);
+    expect(asap.duration_ns).toBe(alap.duration_ns);
+    expect(alap.fidelity.state).toBeGreaterThan(asap.fidelity.state);
+  });
+
+  it('ramsey-echo: the echo refocuses the deliberate phase, the Ramsey qubit keeps a quarter turn', () => {
+    // A quarter turn of phase between two Hadamards gives P(0) = ½ ideally; the echo qubit returns
+    // to |0⟩ (spin echo, common practice). With noise, both lose contrast towards ½.
+    const r = simulate('circuits/ramsey-echo.yaml').result;
+    expect(r.observables!['ZI']!.ideal).toBeCloseTo(0, 12);
+    expect(r.observables!['IZ']!.ideal).toBeCloseTo(1, 12);
+    expect(r.observables!['IZ']!.noisy).toBeLessThan(1);
+    expect(r.observables!['IZ']!.noisy).toBeGreaterThan(0.3);
+  });
+
+  it('coupler-swap: the ideal half swap leaves (|01⟩ − i|10⟩)/√2 on q0 q1', () => {
+    const r = simulate('circuits/coupler-swap.yaml').result;
+    // For (|01⟩ − i|10⟩)/√2: ⟨XY⟩ = 1, ⟨YX⟩ = −1, ⟨ZZ⟩ = −1 (direct computation, common practice).
+    expect(r.observables!['XYI']!.ideal).toBeCloseTo(1, 12);
+    expect(r.observables!['YXI']!.ideal).toBeCloseTo(-1, 12);
+    expect(r.observables!['ZZI']!.ideal).toBeCloseTo(-1, 12);
+    expect(r.observables!['XYI']!.noisy).toBeLessThan(r.observables!['XYI']!.ideal);
+  });
+});

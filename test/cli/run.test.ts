@@ -1,0 +1,149 @@
+import { execFileSync, spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { main } from '../../src/cli/main.js';
+
+/** Runs the CLI in-process with captured output. */
+async function fray(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
+  let out = '';
+  let err = '';
+  const code = await main(argv, { stdout: { write: (s: string) => (out += s) }, stderr: { write: (s: string) => (err += s) } });
+  return { code, out, err };
+}
+
+function tempFile(name: string, text: string): string {
+  const dir = mkdtempSync(join(tmpdir(), 'fray-cli-'));
+  const path = join(dir, name);
+  writeFileSync(path, text);
+  return path;
+}
+
+const LOCATED = /^[^\s:][^:]*:\d+:\d+: \S/;
+
+describe('fray run', () => {
+  it('prints the report with header, fidelity block and outcome table', async () => {
+    const r = await fray('run', 'circuits/ghz5.yaml', '--top', '3');
+    expect(r.code).toBe(0);
+    expect(r.out).toContain('ghz-5 along the bench line');
+    expect(r.out).toMatch(/device\s+bench line/);
+    expect(r.out).toMatch(/state fidelity\s+0\.9\d{5}/);
+    expect(r.out).toMatch(/Most likely outcomes \(3 of 32/);
+    expect(r.out).not.toContain('\u001b[');
+    expect(r.err).toBe('');
+  });
+
+  it('--json prints the contract object, outcome maps in ascending bitstring order', async () => {
+    const r = await fray('run', 'circuits/ghz5.yaml', '--json');
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    for (const key of ['name', 'qubits', 'measured', 'duration_ns', 'probabilities', 'fidelity', 'tvd', 'purity']) expect(j).toHaveProperty(key);
+    expect(Object.keys(j.probabilities)).toEqual(['ideal', 'noisy', 'measured']);
+    expect(Object.keys(j.fidelity)).toEqual(['state', 'classical']);
+    const keys = [...r.out.matchAll(/"([01]{5})":/g)].map((m) => m[1]!).slice(0, 32);
+    expect(keys).toEqual([...keys].sort());
+    expect(j.observables.ZZIII).toHaveProperty('ideal');
+  });
+
+  it('--shots with a seed gives the same counts every time, summing to the shots', async () => {
+    const a = JSON.parse((await fray('run', 'circuits/ghz5.yaml', '--json', '--shots', '500', '--seed', '7')).out);
+    const b = JSON.parse((await fray('run', 'circuits/ghz5.yaml', '--json', '--shots', '500', '--seed', '7')).out);
+    const c = JSON.parse((await fray('run', 'circuits/ghz5.yaml', '--json', '--shots', '500', '--seed', '8')).out);
+    expect(a.counts).toEqual(b.counts);
+    expect(a.counts).not.toEqual(c.counts);
+    expect(Object.values(a.counts as Record<string, number>).reduce((x, y) => x + y, 0)).toBe(500);
+    expect(a.seed).toBe(7);
+  });
+
+  it('--set overrides a parameter and --observe adds Pauli strings', async () => {
+    const base = JSON.parse((await fray('run', 'circuits/ramsey-echo.yaml', '--json')).out);
+    const other = JSON.parse((await fray('run', 'circuits/ramsey-echo.yaml', '--json', '--set', 'detune=0', '--observe', 'XX,ZZ')).out);
+    expect(base.observables.ZI.ideal).toBeCloseTo(0, 12);
+    expect(other.observables.ZI.ideal).toBeCloseTo(1, 12);
+    expect(Object.keys(other.observables)).toEqual(['ZI', 'IZ', 'XX', 'ZZ']);
+  });
+
+  it('--device replaces the circuit’s device', async () => {
+    const dev = tempFile('quiet.yaml', 'name: quiet device\nqubits:\n  all: { t1: 1s }\n');
+    const j = JSON.parse((await fray('run', 'circuits/ghz5.yaml', '--json', '--device', dev)).out);
+    expect(j.device).toBe('quiet device');
+    expect(j.fidelity.state).toBeGreaterThan(0.9999);
+  });
+
+  it('--schedule and --state add their sections', async () => {
+    const r = await fray('run', 'circuits/coupler-swap.yaml', '--schedule', '--state');
+    expect(r.code).toBe(0);
+    expect(r.out).toContain('Schedule (ASAP, times in ns)');
+    expect(r.out).toContain('Idle windows');
+    expect(r.out).toContain('Bloch vector');
+    expect(r.out).toContain('Noisy density matrix');
+  });
+
+  it('input errors: exit 2, one located line per problem, no stack trace', async () => {
+    const bad = tempFile('bad.yaml', 'qubits: 2\nsteps:\n  - hh: 0\n  - cx: [0, 0]\n');
+    const r = await fray('run', bad);
+    expect(r.code).toBe(2);
+    const lines = r.err.trim().split('\n');
+    expect(lines).toHaveLength(2);
+    for (const l of lines) expect(l).toMatch(LOCATED);
+    expect(lines[0]).toContain(`${bad}:3:5: step 1: unknown gate or key 'hh'; did you mean 'h'?`);
+    expect(r.err).not.toMatch(/\n\s+at /);
+    expect(r.out).toBe('');
+  });
+
+  it('a missing circuit file is an input error', async () => {
+    const r = await fray('run', 'no/such/file.yaml');
+    expect(r.code).toBe(2);
+    expect(r.err).toBe("no/such/file.yaml:1:1: cannot read circuit file 'no/such/file.yaml': no such file\n");
+  });
+
+  it('a missing device file is located at the device key', async () => {
+    const c = tempFile('c.yaml', 'qubits: 1\ndevice: nowhere.yaml\nsteps:\n  - h: 0\n');
+    const r = await fray('run', c);
+    expect(r.code).toBe(2);
+    expect(r.err).toContain(`${c}:2:9: cannot read device profile`);
+  });
+
+  it('refuses a run above --max-memory before allocating', async () => {
+    const r = await fray('run', 'circuits/ghz5.yaml', '--max-memory', '1MiB');
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/circuits\/ghz5\.yaml:7:9: 5 qubits need about .* but the limit is 1 MiB/);
+  });
+
+  it('bad option values are input errors', async () => {
+    for (const args of [['--shots', 'many'], ['--max-memory', 'lots'], ['--observe', 'ZZ'], ['--set', 'nonsense'], ['--bogus']]) {
+      const r = await fray('run', 'circuits/ghz5.yaml', ...args);
+      expect(r.code, args.join(' ')).toBe(2);
+      expect(r.out).toBe('');
+    }
+  });
+
+  it('--help explains every option with an example', async () => {
+    const top = await fray('--help');
+    expect(top.code).toBe(0);
+    expect(top.out).toContain('Examples:');
+    const run = await fray('run', '--help');
+    expect(run.code).toBe(0);
+    for (const opt of ['--json', '--device', '--set', '--shots', '--seed', '--observe', '--top', '--state', '--schedule', '--max-memory', '--no-color']) {
+      expect(run.out).toContain(opt);
+    }
+    expect(run.out).toContain('Examples:');
+  });
+});
+
+describe('the installed command', () => {
+  // Runs the compiled bin as a user would (npm test compiles first).
+  it('exits 2 on bad input with located messages and no stack trace', () => {
+    const bad = tempFile('bad.yaml', 'qubits: 1\nsteps:\n  - rz: 0\n');
+    const res = spawnSync(process.execPath, ['bin/fray.js', 'run', bad], { encoding: 'utf8' });
+    expect(res.status).toBe(2);
+    expect(res.stderr).toMatch(new RegExp(`^${bad.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}:3:5: `));
+    expect(res.stderr).not.toMatch(/\n\s+at /);
+  });
+
+  it('prints JSON for a demo and respects NO_COLOR', () => {
+    const out = execFileSync(process.execPath, ['bin/fray.js', 'run', 'circuits/coupler-swap.yaml', '--json'], { encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
+    expect(JSON.parse(out).qubits).toBe(3);
+  });
+});
