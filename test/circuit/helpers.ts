@@ -1,21 +1,12 @@
 /** Test helpers for test/circuit: a seeded PRNG and CMatrix ↔ mathjs conversions. */
 import * as math from 'mathjs';
 import { type CMatrix, fromRows } from '../../src/linalg/cmatrix.js';
+import { mulberry32 } from '../helpers/random.js';
+export { mulberry32 } from '../helpers/random.js';
 
 /** Entrywise agreement demanded of exact constructions (double rounding only). */
 export const TIGHT = 1e-12;
 
-/** mulberry32: a tiny seeded PRNG with outputs in [0, 1) (common practice). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** A random angle in [−2π, 2π). */
 export function randomAngle(rng: () => number): number {

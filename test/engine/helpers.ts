@@ -5,25 +5,10 @@
  */
 import type { CMatrix } from '../../src/linalg/cmatrix.js';
 import type { DensityMatrix, StateVector } from '../../src/engine/layout.js';
+import { mulberry32, gaussian } from '../helpers/random.js';
+export { mulberry32, gaussian } from '../helpers/random.js';
 
-/** mulberry32: a tiny seeded PRNG returning uniforms in [0, 1) (common practice). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
-/** Standard normal sample by the Box–Muller transform. */
-export function gaussian(rng: () => number): number {
-  const u = 1 - rng();
-  const v = rng();
-  return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
-}
 
 /** Random integer in [0, m). */
 export function randInt(rng: () => number, m: number): number {

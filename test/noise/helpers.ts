@@ -16,29 +16,15 @@ import {
   trace,
   zeros,
 } from '../../src/linalg/cmatrix.js';
+import { mulberry32, gaussian } from '../helpers/random.js';
+export { mulberry32, gaussian } from '../helpers/random.js';
 
 /** Trace-preservation tolerance of the contract (krausResidual). */
 export const TP_TOL = 1e-12;
 /** Tolerance for comparing closed-form physics values with computed ones. */
 export const PHYS_TOL = 1e-12;
 
-/** mulberry32 seeded PRNG (common practice), uniform in [0, 1). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
-/** Standard normal via Box–Muller. */
-export function gaussian(rand: () => number): number {
-  const u = Math.max(rand(), 1e-300);
-  return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * rand());
-}
 
 /** Random complex rows × cols matrix with i.i.d. Gaussian entries. */
 export function randomComplex(rand: () => number, rows: number, cols: number): CMatrix {

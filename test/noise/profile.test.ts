@@ -83,3 +83,17 @@ describe('noise profile precedence', () => {
     expect(plainKinds(profile.gateEntry('cx', [1, 0]).kinds)).toEqual({ error: 0.03 });
   });
 });
+
+describe('a device describes a chip, a circuit may use part of it', () => {
+  it('skips a device’s entries for qubits beyond the register', () => {
+    const { profile } = loadText(`qubits: 3\ndevice: dev5.yaml\nsteps:\n  - h: 0\n`, {
+      'dev5.yaml': 'qubits:\n  4: { t1: 10us }\ngates:\n  "cx 3 4": { error: 0.02 }\n  "cx 1 2": { error: 0.03 }\n',
+    });
+    expect(profile.qubits).toHaveLength(3);
+    expect(plainKinds(profile.gateEntry('cx', [1, 2]).kinds)).toEqual({ error: 0.03 });
+  });
+
+  it('refuses the same in a circuit’s inline noise', () => {
+    expect(() => loadText(`qubits: 3\nnoise:\n  qubits:\n    4: { t1: 10us }\nsteps:\n  - h: 0\n`)).toThrow(/test\.yaml:4:5: qubit entry '4': qubit 4 is out of range/);
+  });
+});

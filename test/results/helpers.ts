@@ -5,17 +5,9 @@
 import * as math from 'mathjs';
 import { adjoint, mul, type CMatrix } from '../../src/linalg/cmatrix.js';
 import type { DensityMatrix, StateVector } from '../../src/engine/layout.js';
+import { mulberry32 } from '../helpers/random.js';
+export { mulberry32 } from '../helpers/random.js';
 
-/** mulberry32 (Tommy Ettinger, public domain; from memory): a seeded uniform [0, 1) source for tests only. */
-export function mulberry32(seed: number): () => number {
-  let a = seed | 0;
-  return () => {
-    a = (a + 0x6d2b79f5) | 0;
-    let t = Math.imul(a ^ (a >>> 15), 1 | a);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** A random D × k complex matrix with entries uniform in [−1, 1]² . */
 function randomComplex(rows: number, cols: number, rand: () => number): CMatrix {
