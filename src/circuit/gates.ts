@@ -114,10 +114,13 @@ const TABLE: readonly GateDef[] = [
   gate('cswap', 3, [], () => controlled(swapMatrix())),
 ];
 
-/** Every built-in gate by name; `id` is an alias of `i` (same matrix, its own name). */
+/** Alternative names of built-in gates → the gate's own name (`id` is `i`: one gate, one profile entry). */
+export const GATE_ALIASES: ReadonlyMap<string, string> = new Map([['id', 'i']]);
+
+/** Every built-in gate by name, aliases included (an alias maps to the same GateDef, named canonically). */
 export const BUILTIN_GATES: ReadonlyMap<string, GateDef> = new Map([
   ...TABLE.map((g): [string, GateDef] => [g.name, g]),
-  ['id', gate('id', 1, [], () => identity(2))],
+  ...[...GATE_ALIASES].map(([alias, name]): [string, GateDef] => [alias, TABLE.find((g) => g.name === name)!]),
 ]);
 
 /** The built-in gate of that exact (case-sensitive) name, or undefined. */

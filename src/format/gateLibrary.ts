@@ -44,7 +44,7 @@ export class GateLibrary {
   get(name: string): LibraryGate | undefined {
     const b = BUILTIN_GATES.get(name);
     if (b !== undefined) {
-      return { name, qubits: b.qubits, params: b.params, kind: 'builtin', unitary: (a) => b.matrix(a) };
+      return { name: b.name, qubits: b.qubits, params: b.params, kind: 'builtin', unitary: (a) => b.matrix(a) };
     }
     return this.customs.get(name);
   }

@@ -1,3 +1,4 @@
+import { GATE_ALIASES } from '../circuit/gates.js';
 import { suggest } from '../circuit/suggest.js';
 import type { Circuit } from '../circuit/circuit.js';
 import type { Loc, NoiseKindsSpec } from '../format/noiseKindsSpec.js';
@@ -128,7 +129,7 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
         if (checkResetEntry(entry, where, problems)) reset = mergeGateEntries(reset, entry);
       } else {
         const parts = key.split(' ');
-        const gate = parts[0]!;
+        const gate = GATE_ALIASES.get(parts[0]!) ?? parts[0]!;
         const arity = circuit.gateArity.get(gate);
         if (arity === undefined) {
           const known = [...circuit.gateArity.keys(), 'all', 'measure', 'reset'];

@@ -97,3 +97,11 @@ describe('a device describes a chip, a circuit may use part of it', () => {
     expect(() => loadText(`qubits: 3\nnoise:\n  qubits:\n    4: { t1: 10us }\nsteps:\n  - h: 0\n`)).toThrow(/test\.yaml:4:5: qubit entry '4': qubit 4 is out of range/);
   });
 });
+
+describe('gate aliases', () => {
+  it('id and i are one gate: a profile entry under either name applies to both', () => {
+    const { circuit, profile } = loadText(`qubits: 1\nnoise:\n  gates:\n    id: { duration: 40ns }\nsteps:\n  - i: 0\n  - id: 0\n`);
+    expect(circuit.operations.map((o) => (o.kind === 'gate' ? o.name : ''))).toEqual(['i', 'i']);
+    expect(profile.gateEntry('i', [0]).duration).toBe(40);
+  });
+});
