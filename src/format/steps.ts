@@ -174,7 +174,11 @@ function checkChannelArity(
   }
   for (const app of apps) {
     if (ch.qubits !== 1 && ch.qubits !== app.length) {
-      problems.error(ref.at, 'channel-arity', `${where}: channel '${ref.value}' acts on ${ch.qubits} qubits but the application has ${app.length}; use a ${app.length}-qubit or a 1-qubit channel`);
+      const hint =
+        app.length === 1
+          ? `give its ${ch.qubits} qubits as one inner list, e.g. on: [[${Array.from({ length: ch.qubits }, (_, i) => i).join(', ')}]]`
+          : `use a ${app.length}-qubit or a 1-qubit channel`;
+      problems.error(ref.at, 'channel-arity', `${where}: channel '${ref.value}' acts on ${ch.qubits} qubits but the application has ${app.length}; ${hint}`);
       return false;
     }
   }

@@ -211,35 +211,39 @@ export function gateNoise(input: GateNoiseInput): GateNoise {
   const fTarget = ((1 - r) * (d + 1) - 1) / d;
   const rN = (d * (1 - feN)) / (d + 1); // average gate infidelity of N alone
   const denom = feN - invD2;
+  const maxReachable = Math.max(rN, (d - 1) / d); // r is linear in p: extremes at p = 0 and p = 1
   let p: number;
-  if (Math.abs(denom) < ERROR_SOLVE_TOLERANCE) {
-    // N is (numerically) as noisy as full depolarization: F_e no longer depends on p.
-    p = Math.abs(feN - fTarget) <= ERROR_SOLVE_TOLERANCE ? 0 : r > rN ? Infinity : -Infinity;
-  } else {
-    p = (feN - fTarget) / denom;
-  }
-
-  if (p > 1 + ERROR_SOLVE_TOLERANCE) {
-    const maxReachable = Math.max(rN, (d - 1) / d); // r is linear in p: extremes at p = 0 and p = 1
-    throw new ErrorSolveError(
-      `error ${r} needs a depolarizing probability ${fmt(p)} > 1; the largest reachable average gate infidelity for a ${k}-qubit gate here is ${fmt(maxReachable)}`,
-      r,
-      p,
-      maxReachable,
-    );
-  }
-  if (p < 0) {
-    if (p < -ERROR_SOLVE_TOLERANCE) {
-      const kindsCount = placed.length - thermalCount;
-      const cause =
-        thermalCount > 0 && kindsCount > 0
-          ? 'relaxation and the listed noise already cause'
-          : thermalCount > 0
-            ? 'relaxation during the gate already causes (the coherence limit)'
-            : 'the listed noise already causes';
-      result.warning = `calibrated error ${r} is below what ${cause} (${fmt(rN)}); no depolarizing added`;
-    }
+  if (rN > r + ERROR_SOLVE_TOLERANCE) {
+    // The contract: when the channel before the solved depolarizing already exceeds r, warn and
+    // add nothing — also where N is worse than full depolarization (denom < 0) and some p would
+    // bring the infidelity back down to r.
+    const kindsCount = placed.length - thermalCount;
+    const cause =
+      thermalCount > 0 && kindsCount > 0
+        ? 'relaxation and the listed noise already cause'
+        : thermalCount > 0
+          ? 'relaxation during the gate already causes (the coherence limit)'
+          : 'the listed noise already causes';
+    result.warning = `calibrated error ${r} is below what ${cause} (${fmt(rN)}); no depolarizing added`;
     p = 0;
+  } else {
+    // Here rN ≤ r (within the tolerance). With denom > 0 the solve gives p ≥ 0 (up to rounding);
+    // with denom ≤ 0 (N at least as noisy as full depolarization) no p ∈ [0, 1] raises the
+    // infidelity above rN, so any r beyond it is unreachable.
+    if (Math.abs(denom) < ERROR_SOLVE_TOLERANCE) p = Math.abs(feN - fTarget) <= ERROR_SOLVE_TOLERANCE ? 0 : Infinity;
+    else p = (feN - fTarget) / denom;
+    if (p < -ERROR_SOLVE_TOLERANCE) p = Infinity;
+    if (p > 1 + ERROR_SOLVE_TOLERANCE) {
+      throw new ErrorSolveError(
+        Number.isFinite(p)
+          ? `error ${r} needs a depolarizing probability ${fmt(p)} > 1; the largest reachable average gate infidelity for a ${k}-qubit gate here is ${fmt(maxReachable)}`
+          : `error ${r} cannot be reached by adding depolarizing noise; the largest reachable average gate infidelity for a ${k}-qubit gate here is ${fmt(maxReachable)}`,
+        r,
+        p,
+        maxReachable,
+      );
+    }
+    if (p < 0) p = 0;
   }
   if (p > 1) p = 1;
   result.solvedDepolarizing = p;

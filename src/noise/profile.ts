@@ -130,6 +130,10 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
       } else {
         const parts = key.split(' ');
         const gate = GATE_ALIASES.get(parts[0]!) ?? parts[0]!;
+        if (gate === 'all' || gate === 'measure' || gate === 'reset') {
+          problems.error(keyAt, 'bad-gate-key', `${where}: '${gate}' entries apply to every qubit; a qubit tuple such as "cx 1 2" is only for gates`);
+          continue;
+        }
         const arity = circuit.gateArity.get(gate);
         if (arity === undefined) {
           const known = [...circuit.gateArity.keys(), 'all', 'measure', 'reset'];

@@ -62,6 +62,8 @@ const cases: { name: string; text: string; where: string; says: string; device?:
   { name: 'unknown gate in the device', text: 'qubits: 2\ndevice: dev.yaml\nsteps:\n  - h: 0\n', device: 'gates:\n  cnot: { duration: 30ns }\n', where: 'dev.yaml:2:3', says: "no gate named 'cnot'" },
   { name: 'tuple entry with wrong arity', text: 'qubits: 3\ndevice: dev.yaml\nsteps:\n  - h: 0\n', device: 'gates:\n  "cx 0 1 2": { error: 0.01 }\n', where: 'dev.yaml:2:3', says: 'key names 3' },
   { name: 'error and depolarizing in one device entry', text: 'qubits: 2\ndevice: dev.yaml\nsteps:\n  - h: 0\n', device: 'gates:\n  cx: { error: 0.01, depolarizing: 0.02 }\n', where: 'dev.yaml:2:36', says: "both 'error' and 'depolarizing'" },
+  { name: 'qubit tuple on a reset entry', text: 'qubits: 2\ndevice: dev.yaml\nsteps:\n  - h: 0\n', device: 'gates:\n  "reset 1": { duration: 1us }\n', where: 'dev.yaml:2:3', says: "'reset' entries apply to every qubit" },
+  { name: '2-qubit channel on a flat list', text: 'qubits: 2\nchannels:\n  zz:\n    kraus: [ [[1,0,0,0],[0,1,0,0],[0,0,1,0],[0,0,0,1]] ]\nsteps:\n  - noise: { channel: zz }\n    on: [0, 1]\n', where: 'c.yaml:6:23', says: 'give its 2 qubits as one inner list, e.g. on: [[0, 1]]' },
   { name: 'missing device file', text: 'qubits: 1\ndevice: nowhere.yaml\nsteps:\n  - h: 0\n', where: 'c.yaml:2:9', says: '' },
   { name: 'measure entry with noise', text: 'qubits: 1\ndevice: dev.yaml\nsteps:\n  - h: 0\n', device: 'gates:\n  measure: { duration: 1us, bit_flip: 0.1 }\n', where: 'dev.yaml:2:39', says: "takes only 'duration'" },
 ];
