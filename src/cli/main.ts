@@ -1,6 +1,7 @@
 import { Command, CommanderError, Option } from 'commander';
 import { InputError } from '../format/problem.js';
 import { runCommand } from './runCommand.js';
+import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
 import { makeStyle, wantColor } from './style.js';
 import { renderProblems } from './problems.js';
 
@@ -106,6 +107,30 @@ function buildProgram(io: CliIO): Command {
       await runCommand(file, opts, io);
     });
   run.exitOverride();
+
+  const channel = program
+    .command('channel')
+    .description('inspect quantum channels: physicality, minimal Kraus form, fidelities, diamond distance')
+    .argument('<file>', "YAML file with a 'channels:' map (a circuit file works too)")
+    .argument('[name]', 'report only this channel')
+    .option('--as <form>', 'also print this representation: kraus, choi, superoperator, ptm, stinespring')
+    .option('--against <target>', "compare with a channel of the file or a built-in gate, e.g. cx or 'rz(pi/4)' (default: identity)")
+    .option('--json', 'print one JSON object instead of the report')
+    .option('--no-color', 'plain text even on a terminal (NO_COLOR is respected too)')
+    .addHelpText(
+      'after',
+      '\nExamples:\n' +
+        '  fray channel circuits/channels/tomography-fit.yaml\n' +
+        '  fray channel circuits/channels/swap-environment.yaml partial_swap --as stinespring\n' +
+        "  fray channel circuits/channels/long-gate.yaml --against 'rx(pi)' --json\n" +
+        '\nConventions: Choi matrix input factor first and unnormalised; superoperator on column-stacked\n' +
+        'vec(ρ); PTM R_ij = Tr(P_i E(P_j))/d with Paulis I, X, Y, Z and qubit 0 leftmost; Stinespring\n' +
+        'V = Σ K_k ⊗ |k⟩ with the environment last. Diamond distances range over [0, 2].',
+    )
+    .action(async (file: string, name: string | undefined, opts: ChannelCommandOptions) => {
+      await channelCommand(file, name, opts, io);
+    });
+  channel.exitOverride();
   return program;
 }
 

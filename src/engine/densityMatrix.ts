@@ -1,7 +1,8 @@
 /**
  * Creation and diagnostics of n-qubit density matrices in the layout of ./layout.ts.
  */
-import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
+import { EigenvalueDecomposition } from 'ml-matrix';
+import { hermitianEmbedding } from '../linalg/hermitianEigen.js';
 import type { DensityMatrix } from './layout.js';
 import { checkQubitCount } from './targets.js';
 
@@ -57,20 +58,7 @@ export function minEigenvalue(rho: DensityMatrix): number {
   if (rho.n > MIN_EIGENVALUE_MAX_QUBITS) {
     throw new RangeError(`minEigenvalue: ${rho.n} qubits exceeds the limit of ${MIN_EIGENVALUE_MAX_QUBITS}`);
   }
-  const D = rho.dim;
-  const R = rho.data;
-  const m = new Matrix(2 * D, 2 * D);
-  for (let i = 0; i < D; i++) {
-    for (let j = 0; j < D; j++) {
-      // symmetrise: Hermitian part (ρ + ρ†)/2 has A = (Re ρ + Re ρᵀ)/2, B = (Im ρ − Im ρᵀ)/2
-      const a = 0.5 * (R[2 * (i * D + j)]! + R[2 * (j * D + i)]!);
-      const b = 0.5 * (R[2 * (i * D + j) + 1]! - R[2 * (j * D + i) + 1]!);
-      m.set(i, j, a);
-      m.set(i + D, j + D, a);
-      m.set(i, j + D, -b);
-      m.set(i + D, j, b);
-    }
-  }
+  const m = hermitianEmbedding(rho.data, rho.dim);
   const eig = new EigenvalueDecomposition(m, { assumeSymmetric: true });
   let lo = Infinity;
   for (const v of eig.realEigenvalues) if (v < lo) lo = v;

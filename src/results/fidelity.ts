@@ -8,6 +8,8 @@
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import type { DensityMatrix, StateVector } from '../engine/layout.js';
 import { isDensityMatrix } from './stateKind.js';
+import { hermitianEmbedding } from '../linalg/hermitianEigen.js';
+import type { IdealState } from '../engine/run.js';
 
 /** Eigenvalues of a density-matrix-like operator down to −this are rounding and clipped to 0; below it the input is rejected as not positive semidefinite. */
 export const NEGATIVE_EIGENVALUE_TOLERANCE = 1e-9;
@@ -18,7 +20,6 @@ export const NEGATIVE_EIGENVALUE_TOLERANCE = 1e-9;
  */
 export const SUPPORT_EIGENVALUE_TOLERANCE = 1e-12;
 
-import type { IdealState } from '../engine/run.js';
 export type { IdealState };
 
 /** Uhlmann–Jozsa fidelity F(ρ, σ) = (Tr √(√σ ρ √σ))² (squared convention) of the noisy ρ with the ideal σ. */
@@ -54,30 +55,9 @@ function pureFidelity(rho: DensityMatrix, psi: StateVector): number {
   return acc;
 }
 
-/**
- * The real symmetric 2D × 2D embedding [[A, −B], [B, A]] of the Hermitian matrix A + iB held
- * in interleaved layout. It maps products to products and X† to the transpose, and has each
- * eigenvalue of A + iB twice.
- */
-function realEmbedding(data: Float64Array, d: number): Matrix {
-  const e = new Matrix(2 * d, 2 * d);
-  for (let i = 0; i < d; i++) {
-    for (let j = 0; j < d; j++) {
-      // Hermitian part, so that rounding asymmetry does not leak into the symmetric solver.
-      const a = 0.5 * (data[2 * (i * d + j)]! + data[2 * (j * d + i)]!);
-      const b = 0.5 * (data[2 * (i * d + j) + 1]! - data[2 * (j * d + i) + 1]!);
-      e.set(i, j, a);
-      e.set(i + d, j + d, a);
-      e.set(i, j + d, -b);
-      e.set(i + d, j, b);
-    }
-  }
-  return e;
-}
-
 /** Eigen-decomposition of the real embedding of a density matrix, checked positive semidefinite. */
 function psdEigen(state: DensityMatrix, what: string): EigenvalueDecomposition {
-  const eig = new EigenvalueDecomposition(realEmbedding(state.data, state.dim), { assumeSymmetric: true });
+  const eig = new EigenvalueDecomposition(hermitianEmbedding(state.data, state.dim), { assumeSymmetric: true });
   for (const lambda of eig.realEigenvalues) {
     if (lambda < -NEGATIVE_EIGENVALUE_TOLERANCE) {
       throw new RangeError(`stateFidelity: ${what} has eigenvalue ${lambda}, it is not positive semidefinite`);
@@ -123,7 +103,7 @@ function mixedFidelity(rho: DensityMatrix, sigma: DensityMatrix): number {
     const s = Math.sqrt(lambdas[c]!);
     for (let row = 0; row < size; row++) w.set(row, k, vectors.get(row, c) * s);
   }
-  const l = w.transpose().mmul(realEmbedding(other.data, other.dim)).mmul(w);
+  const l = w.transpose().mmul(hermitianEmbedding(other.data, other.dim)).mmul(w);
   const sym = l.add(l.transpose()).mul(0.5);
   const mu = new EigenvalueDecomposition(sym, { assumeSymmetric: true }).realEigenvalues;
   let traceSqrt = 0;

@@ -12,13 +12,14 @@
  * span each complex eigenspace twice over (Σ z z† = 2·P_λ on each eigenspace). We keep one
  * vector per pair by a complex Gram–Schmidt with pivoting: repeatedly accept the candidate
  * with the largest component orthogonal (in the complex inner product) to those accepted so
- * far, until n are accepted. The pivot guarantees a residual of at least 1/√n of a unit vector
- * (so no partner of an accepted vector is ever taken), and eigenvectors of different
+ * far, until n are accepted. Since Σ z z† = 2·I over all 2n candidates, after t acceptances
+ * the squared residuals add up to 2(n − t), so the pivot's residual is at least √(2/(n + 1))
+ * (a partner of an accepted vector has residual ≈ 0 and is never taken), and eigenvectors of different
  * eigenvalues are orthogonal already, so the process never mixes eigenspaces. Each
  * eigenvalue is then the Rayleigh quotient q†Hq of its accepted vector q.
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
-import type { CMatrix } from '../linalg/cmatrix.js';
+import type { CMatrix } from './cmatrix.js';
 
 /** Eigenvalues (descending) and orthonormal eigenvectors (column k belongs to values[k]) of a Hermitian matrix. */
 export interface HermitianEigen {
@@ -28,27 +29,41 @@ export interface HermitianEigen {
 }
 
 /**
+ * The real symmetric 2n × 2n embedding M = [[A, −B], [B, A]] of the Hermitian part
+ * A + iB = (H + H†)/2 of the n × n complex matrix held interleaved in `data` (row-major, as
+ * CMatrix and the density matrix of src/engine/layout.ts). Taking the Hermitian part keeps
+ * rounding asymmetry out of the symmetric solver; M maps products to products and X† to Xᵀ.
+ */
+export function hermitianEmbedding(data: Float64Array, n: number): Matrix {
+  const m = new Matrix(2 * n, 2 * n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      const a = 0.5 * (data[2 * (i * n + j)]! + data[2 * (j * n + i)]!);
+      const b = 0.5 * (data[2 * (i * n + j) + 1]! - data[2 * (j * n + i) + 1]!);
+      m.set(i, j, a);
+      m.set(i, n + j, -b);
+      m.set(n + i, j, b);
+      m.set(n + i, n + j, a);
+    }
+  }
+  return m;
+}
+
+/**
  * Eigen-decomposition of the Hermitian part (H + H†)/2 of the square matrix `h`
  * (ml-matrix on the real symmetric embedding; see the file comment for the pairing).
  */
 export function hermitianEigen(h: CMatrix): HermitianEigen {
   const n = h.rows;
   if (h.cols !== n) throw new RangeError(`hermitianEigen: matrix is ${h.rows}×${h.cols}, expected square`);
-  const H = h.data;
-  // Hermitian part, as real part A (symmetric) and imaginary part B (antisymmetric).
-  const m = new Matrix(2 * n, 2 * n);
+  const m = hermitianEmbedding(h.data, n);
+  // Hermitian part, as real part A (symmetric) and imaginary part B (antisymmetric), read back from M.
   const A = new Float64Array(n * n);
   const B = new Float64Array(n * n);
   for (let i = 0; i < n; i++) {
     for (let j = 0; j < n; j++) {
-      const a = 0.5 * (H[2 * (i * n + j)]! + H[2 * (j * n + i)]!);
-      const b = 0.5 * (H[2 * (i * n + j) + 1]! - H[2 * (j * n + i) + 1]!);
-      A[i * n + j] = a;
-      B[i * n + j] = b;
-      m.set(i, j, a);
-      m.set(i, n + j, -b);
-      m.set(n + i, j, b);
-      m.set(n + i, n + j, a);
+      A[i * n + j] = m.get(i, j);
+      B[i * n + j] = m.get(n + i, j);
     }
   }
   const eig = new EigenvalueDecomposition(m, { assumeSymmetric: true });
@@ -63,21 +78,23 @@ export function hermitianEigen(h: CMatrix): HermitianEigen {
     }
   }
   const used = new Uint8Array(n2);
+  // Squared residual norms, updated as ‖z − p q‖² = ‖z‖² − |p|² after each projection.
+  const norm2 = new Float64Array(n2).fill(1);
   const q = new Float64Array(2 * n * n); // accepted vectors, vector t at q[2·t·n …]
   for (let t = 0; t < n; t++) {
     let best = -1;
     let bestNorm = -1;
     for (let c = 0; c < n2; c++) {
-      if (used[c]) continue;
-      let s = 0;
-      for (let r = 0; r < n; r++) s += cand[2 * (c * n + r)]! ** 2 + cand[2 * (c * n + r) + 1]! ** 2;
-      if (s > bestNorm) {
-        bestNorm = s;
+      if (!used[c] && norm2[c]! > bestNorm) {
+        bestNorm = norm2[c]!;
         best = c;
       }
     }
     used[best] = 1;
-    const inv = 1 / Math.sqrt(bestNorm);
+    // recompute the pivot's norm exactly (the running update loses digits)
+    let exact = 0;
+    for (let r = 0; r < n; r++) exact += cand[2 * (best * n + r)]! ** 2 + cand[2 * (best * n + r) + 1]! ** 2;
+    const inv = 1 / Math.sqrt(exact);
     for (let r = 0; r < n; r++) {
       q[2 * (t * n + r)] = cand[2 * (best * n + r)]! * inv;
       q[2 * (t * n + r) + 1] = cand[2 * (best * n + r) + 1]! * inv;
@@ -101,6 +118,7 @@ export function hermitianEigen(h: CMatrix): HermitianEigen {
         cand[2 * (c * n + r)] -= pr * qr - pi * qi;
         cand[2 * (c * n + r) + 1] -= pr * qi + pi * qr;
       }
+      norm2[c] = norm2[c]! - (pr * pr + pi * pi);
     }
   }
   // Rayleigh quotients λ_t = q_t† H q_t = Σ_ij conj(q_i) (A + iB)_ij q_j (real part).
