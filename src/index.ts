@@ -26,3 +26,5 @@ export type { Figures } from './results/report.js';
 export { stateFidelity, classicalFidelity, totalVariationDistance, purity } from './results/fidelity.js';
 export { pauliExpectation, blochVectors } from './results/observables.js';
 export type { CMatrix } from './linalg/cmatrix.js';
+export { Channel, checkPhysicality, channelMetrics, diamondDistance, nearestCptp, sequence, parallel } from './channels/index.js';
+export type { Physicality, ChannelMetrics, DiamondDistance, CptpRepair, ChannelForm } from './channels/index.js';
