@@ -6,5 +6,8 @@ export default defineConfig({
     exclude: ['test/bench/**', 'node_modules/**'],
     testTimeout: 60_000,
     pool: 'forks',
+    // Test files share a worker's module cache: every file imports pure modules (and several
+    // import mathjs, whose load dominated the run at ~2 s per file), so isolation buys nothing.
+    isolate: false,
   },
 });
