@@ -1,8 +1,15 @@
 import type { Circuit, Operation } from '../circuit/circuit.js';
-import type { Kernels } from '../engine/kernels.js';
+import { fastKernels } from '../engine/fastKernels.js';
+import { referenceKernels, type Kernels } from '../engine/kernels.js';
 import type { DensityMatrix } from '../engine/layout.js';
 import { checkMemory, defaultMemoryLimit, MemoryLimitError } from '../engine/memory.js';
 import { runIdeal, runNoisy } from '../engine/run.js';
+import { runCompiled, THREADS_MIN_QUBITS } from '../engine/runCompiled.js';
+import { defaultThreads, sharedThreadPool } from '../engine/threadPool.js';
+import { WARM_MIN_QUBITS, warmKernels } from '../engine/warmKernels.js';
+import { buildPlan } from '../plan/buildPlan.js';
+import { compilePlan } from '../plan/compilePlan.js';
+import type { Plan } from '../plan/plan.js';
 import { InputError, ProblemList, type Problem } from '../format/problem.js';
 import type { NoiseProfile } from '../noise/profile.js';
 import { buildProgram, type Program } from '../program/program.js';
@@ -22,8 +29,17 @@ export interface SimulateOptions {
   readonly seed?: number;
   /** Refuse to allocate more than this many bytes (default: half the machine's memory). */
   readonly maxMemoryBytes?: number;
-  /** Replacement kernels for the noisy run (the reference kernels by default). */
+  /**
+   * 'fast' (default): the noisy run as a fused plan (src/plan/) on the fast kernels;
+   * 'reference': instruction by instruction on `kernels` (the plain reference kernels by default).
+   */
+  readonly engine?: 'fast' | 'reference';
+  /** Kernels of the reference engine (giving them selects engine 'reference'). */
   readonly kernels?: Kernels;
+  /** Threads that share each pass of the fast engine on large registers (default: os.availableParallelism(); 1 = off). */
+  readonly threads?: number;
+  /** Fuse instructions into as few passes as possible (default true); false = one general kernel call per instruction. */
+  readonly fuse?: boolean;
 }
 
 /** The JSON object of `fray run --json` (the contract's keys plus a few of fray's own). */
@@ -55,6 +71,8 @@ export interface Simulation {
   readonly profile: NoiseProfile;
   readonly schedule: Schedule;
   readonly program: Program;
+  /** The plan the fast engine ran (absent on the reference engine). */
+  readonly plan?: Plan;
   readonly rho: DensityMatrix;
   readonly ideal: IdealState;
   readonly result: RunResult;
@@ -88,14 +106,26 @@ export function measuredQubits(circuit: Circuit): number[] {
   return [...qs].sort((a, b) => a - b);
 }
 
-/** Runs a loaded circuit: schedule, program, memory check, noisy and ideal runs, figures. Throws InputError on bad input. */
-export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions = {}): Simulation {
+/** A planned run: the stages up to the plan, before anything large is allocated. */
+export interface PlannedRun {
+  readonly schedule: Schedule;
+  readonly program: Program;
+  readonly plan: Plan;
+  readonly problems: ProblemList;
+}
+
+/** True when the options select the reference engine (engine 'reference' or explicit kernels). */
+function usesReference(options: SimulateOptions): boolean {
+  return options.engine === 'reference' || options.kernels !== undefined;
+}
+
+/** Schedules and builds the program of a loaded circuit; throws InputError on bad input. */
+function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: Schedule; program: Program; problems: ProblemList } {
   const { circuit, profile } = loaded;
   const problems = new ProblemList();
   for (const w of loaded.warnings) problems.items.push(w);
   const n = circuit.register.n;
-  const extraObserve = options.observe ?? [];
-  for (const p of extraObserve) {
+  for (const p of options.observe ?? []) {
     const bad = pauliStringProblem(p, n);
     // Located at the register the string must match.
     if (bad !== undefined) problems.error(circuit.qubitsAt, 'bad-pauli', `--observe ${p}: ${bad}`);
@@ -103,6 +133,33 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
   const schedule = scheduleCircuit(circuit, profile);
   const program = buildProgram(circuit, profile, schedule, problems);
   problems.throwIfErrors();
+  return { schedule, program, problems };
+}
+
+/** The plan of kernel calls the fast engine would run for a loaded circuit (nothing is simulated). Throws InputError on bad input. */
+export function planLoaded(loaded: LoadedCircuit, options: SimulateOptions = {}): PlannedRun {
+  const { schedule, program, problems } = prepare(loaded, options);
+  const plan = buildPlan(program.n, program.noisy, { fuse: options.fuse !== false });
+  return { schedule, program, plan, problems };
+}
+
+/** Reads a circuit file and returns its plan (`fray run --plan`). Throws InputError on bad input. */
+export function planFile(path: string, options: SimulateOptions & LoadOptions = {}): PlannedRun {
+  return planLoaded(loadCircuit(path, options), options);
+}
+
+/** Runs a loaded circuit: schedule, program, memory check, noisy and ideal runs, figures. Throws InputError on bad input. */
+export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions = {}): Simulation {
+  const { circuit, profile } = loaded;
+  const n = circuit.register.n;
+  const extraObserve = options.observe ?? [];
+  const fast = !usesReference(options);
+  const threads = options.threads ?? defaultThreads();
+  if (fast && (!Number.isInteger(threads) || threads < 1)) throw new RangeError(`simulate: threads must be a whole number ≥ 1, not ${threads}`);
+  // start the workers first: they boot and warm up while this thread schedules, plans and warms its own kernels
+  const pool = fast && threads > 1 && n >= THREADS_MIN_QUBITS ? sharedThreadPool(threads) : undefined;
+  if (fast && n >= WARM_MIN_QUBITS) warmKernels();
+  const { schedule, program, problems } = prepare(loaded, options);
   try {
     checkMemory(n, !program.idealHasReset, options.maxMemoryBytes ?? defaultMemoryLimit());
   } catch (e) {
@@ -112,8 +169,18 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     }
     throw e;
   }
-  const rho = runNoisy(n, program.noisy, options.kernels);
-  const ideal = runIdeal(n, program.ideal);
+  let rho: DensityMatrix;
+  let plan: Plan | undefined;
+  let ideal: IdealState;
+  if (!fast) {
+    const kernels = options.kernels ?? referenceKernels;
+    rho = runNoisy(n, program.noisy, kernels);
+    ideal = runIdeal(n, program.ideal, kernels);
+  } else {
+    plan = buildPlan(n, program.noisy, { fuse: options.fuse !== false });
+    rho = runCompiled(compilePlan(plan), pool);
+    ideal = runIdeal(n, program.ideal, fastKernels);
+  }
   const measured = measuredQubits(circuit);
   const observe = [...new Set([...circuit.observe.map((o) => o.value), ...extraObserve])];
   const figures = computeFigures(rho, ideal, {
@@ -143,7 +210,7 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED, counts: figures.counts } : {}),
     warnings: problems.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`),
   };
-  return { circuit, profile, schedule, program, rho, ideal, result, warnings: problems.warnings };
+  return { circuit, profile, schedule, program, ...(plan !== undefined ? { plan } : {}), rho, ideal, result, warnings: problems.warnings };
 }
 
 /** Reads, validates and runs a circuit file (the one easy call). Throws InputError on bad input. */

@@ -92,6 +92,9 @@ function buildProgram(io: CliIO): Command {
     .option('--state', 'print per-qubit Bloch vectors (and ρ for up to 3 qubits)')
     .option('--schedule', 'print the time schedule and idle windows')
     .option('--max-memory <size>', 'refuse runs needing more memory than this, e.g. 2GiB (default: half the machine)')
+    .option('--plan', 'print the plan of kernel calls (what is fused into each pass over the density matrix) instead of running')
+    .option('--threads <n>', 'threads sharing each pass on 9+ qubits (default: the machine\'s cores; 1 = off)', parseThreads)
+    .option('--no-fuse', 'apply every gate and channel as its own pass (slower; for comparison)')
     .option('--no-color', 'plain text even on a terminal (NO_COLOR is respected too)')
     .addHelpText(
       'after',
@@ -100,6 +103,8 @@ function buildProgram(io: CliIO): Command {
         '  fray run circuits/ghz5.yaml --device circuits/devices/bench-line5.yaml --top 4\n' +
         '  fray run circuits/ramsey-echo.yaml --set detune=0.025 --schedule\n' +
         '  fray run circuits/ghz5.yaml --shots 1000 --seed 7 --observe ZZIII,XXXXX --json\n' +
+        '  fray run circuits/bench/layers10x20.yaml --plan      what each pass over ρ fuses\n' +
+        '  fray run circuits/bench/layers10x20.yaml --threads 1 one thread (or --no-fuse: one pass per operation)\n' +
         '\nReport figures: state fidelity is Uhlmann–Jozsa, squared; classical fidelity and total\n' +
         'variation distance compare ideal probabilities with measured ones (readout error included).',
     )
@@ -143,6 +148,12 @@ function parseShots(v: string): number {
 function parseSeed(v: string): number {
   const n = Number(v);
   if (!/^-?\d+$/.test(v) || !Number.isSafeInteger(n)) throw new UsageError(`--seed ${v}: expected a whole number`);
+  return n;
+}
+
+function parseThreads(v: string): number {
+  const n = Number(v);
+  if (!/^\d+$/.test(v) || !Number.isSafeInteger(n) || n < 1) throw new UsageError(`--threads ${v}: expected a whole number of threads, 1 or more`);
   return n;
 }
 

@@ -1,4 +1,5 @@
-import { simulate } from '../api/simulate.js';
+import { planFile, simulate } from '../api/simulate.js';
+import { formatPlan, planToJson } from '../plan/formatPlan.js';
 import { parseByteSize } from '../engine/memory.js';
 import { renderRunReport } from './runReport.js';
 import { toJson } from './json.js';
@@ -19,14 +20,23 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
     maxMemoryBytes = parseByteSize(String(opts['maxMemory']));
     if (maxMemoryBytes === undefined) throw new UsageError(`--max-memory ${String(opts['maxMemory'])}: expected a size such as 512MiB, 2GiB or 1.5GB`);
   }
-  const sim = simulate(file, {
+  const options = {
     set,
     ...(opts['device'] !== undefined ? { device: String(opts['device']) } : {}),
     observe,
     ...(opts['shots'] !== undefined ? { shots: opts['shots'] as number } : {}),
     ...(opts['seed'] !== undefined ? { seed: opts['seed'] as number } : {}),
     ...(maxMemoryBytes !== undefined ? { maxMemoryBytes } : {}),
-  });
+    ...(opts['threads'] !== undefined ? { threads: opts['threads'] as number } : {}),
+    fuse: opts['fuse'] !== false,
+  };
+  if (opts['plan'] === true) {
+    const planned = planFile(file, options);
+    const origins = planned.program.origins;
+    io.stdout.write(opts['json'] ? toJson(planToJson(planned.plan, origins)) + '\n' : formatPlan(planned.plan, origins));
+    return;
+  }
+  const sim = simulate(file, options);
   if (opts['json']) {
     io.stdout.write(toJson(sim.result) + '\n');
     return;

@@ -1,0 +1,83 @@
+/**
+ * One kernel call as plain integers, so the main thread and the worker threads execute the
+ * same call from shared memory. Word layout of a call starting at `at`:
+ *   [at]     kernel id (KERNEL_IDS)
+ *   [at + 1] arena offset of the call's numbers (real-form matrix, superoperator or table A)
+ *   [at + 2] arena offset of table B (diagonal kernel only, else 0)
+ *   [at + 3] number of qubits kA (targets, or the qubits of table A)
+ *   [at + 4] number of qubits kB of table B (diagonal kernel only, else 0)
+ *   [at + 5 …] the kA + kB qubits (first listed = most significant local bit, ./layout.ts)
+ */
+import { applyDiagonal } from './kernelDiagonal.js';
+import { applyGeneral } from './kernelGeneral.js';
+import { applyReal1, applyReal1Tp } from './kernelReal1.js';
+import { applyReal2 } from './kernelReal2.js';
+
+/**
+ * Numeric ids of the kernels: real-form 1-qubit, real-form mirrored 2-qubit, diagonal batch,
+ * general k-qubit complex, and the real-form 1-qubit kernel for trace-preserving maps.
+ */
+export const KERNEL_IDS = { real1: 1, real2: 2, diagonal: 3, general: 4, real1tp: 5 } as const;
+
+/** Name of a kernel of the fast engine. */
+export type KernelName = keyof typeof KERNEL_IDS;
+
+/** A kernel call before encoding: which kernel, its qubits, where its numbers are in the arena. */
+export interface KernelCall {
+  readonly kernel: KernelName;
+  /** Targets (real1, real2, general) or the qubits of table A (diagonal). */
+  readonly qubits: readonly number[];
+  /** Qubits of table B (diagonal only; may be empty). */
+  readonly qubitsB?: readonly number[];
+  readonly off: number;
+  readonly offB?: number;
+}
+
+/** Number of words of an encoded call. */
+export function callWords(call: KernelCall): number {
+  return 5 + call.qubits.length + (call.qubitsB?.length ?? 0);
+}
+
+/** Writes `call` into `words` at `at` (layout above); returns the index after it. */
+export function encodeCall(call: KernelCall, words: Int32Array, at: number): number {
+  const b = call.qubitsB ?? [];
+  words[at] = KERNEL_IDS[call.kernel];
+  words[at + 1] = call.off;
+  words[at + 2] = call.offB ?? 0;
+  words[at + 3] = call.qubits.length;
+  words[at + 4] = b.length;
+  let i = at + 5;
+  for (const q of call.qubits) words[i++] = q;
+  for (const q of b) words[i++] = q;
+  return i;
+}
+
+/** Executes the call encoded at words[at …] on the n-qubit ρ (`data`), for part `part` of `parts` (./partition.ts). */
+export function executeCall(data: Float64Array, n: number, words: Int32Array, at: number, arena: Float64Array, part: number, parts: number): void {
+  const id = words[at]!;
+  const off = words[at + 1]!;
+  const kA = words[at + 3]!;
+  switch (id) {
+    case KERNEL_IDS.real1:
+      applyReal1(data, n, words[at + 5]!, arena, off, part, parts);
+      return;
+    case KERNEL_IDS.real1tp:
+      applyReal1Tp(data, n, words[at + 5]!, arena, off, part, parts);
+      return;
+    case KERNEL_IDS.real2:
+      applyReal2(data, n, words[at + 5]!, words[at + 6]!, arena, off, part, parts);
+      return;
+    case KERNEL_IDS.diagonal: {
+      const kB = words[at + 4]!;
+      const a = words.subarray(at + 5, at + 5 + kA);
+      const b = words.subarray(at + 5 + kA, at + 5 + kA + kB);
+      applyDiagonal(data, n, a, b, arena, off, words[at + 2]!, part, parts);
+      return;
+    }
+    case KERNEL_IDS.general:
+      applyGeneral(data, n, words.subarray(at + 5, at + 5 + kA), arena, off, part, parts);
+      return;
+    default:
+      throw new RangeError(`executeCall: unknown kernel id ${id}`);
+  }
+}

@@ -1,0 +1,62 @@
+/**
+ * Entry point of a worker thread of ./threadPool.ts: warms its kernels, reports ready, then
+ * blocks on the control block and executes its part of each kernel call on the shared ρ.
+ */
+import { receiveMessageOnPort, workerData, type MessagePort } from 'node:worker_threads';
+import { executeCall } from './kernelCall.js';
+import {
+  CMD_ATTACH,
+  CMD_DETACH,
+  CMD_QUIT,
+  CTRL_AT,
+  CTRL_CMD,
+  CTRL_DONE,
+  CTRL_ERROR,
+  CTRL_GEN,
+  CTRL_N,
+  CTRL_PARTS,
+  CTRL_READY,
+} from './threadControl.js';
+import { awaitOptimisedKernels } from './warmKernels.js';
+
+/** The buffers a worker works on, as posted by ThreadPool.attach. */
+interface Attachment {
+  readonly data: Float64Array;
+  readonly arena: Float64Array;
+  readonly words: Int32Array;
+}
+
+function workerLoop(): void {
+  const ctrl = new Int32Array(workerData.ctrl as SharedArrayBuffer);
+  const part = workerData.part as number;
+  const port = workerData.port as MessagePort;
+  awaitOptimisedKernels();
+  Atomics.add(ctrl, CTRL_READY, 1);
+  Atomics.notify(ctrl, CTRL_READY);
+  let current: Attachment | undefined;
+  let gen = 0;
+  for (;;) {
+    Atomics.wait(ctrl, CTRL_GEN, gen);
+    gen = Atomics.load(ctrl, CTRL_GEN);
+    const cmd = ctrl[CTRL_CMD]!;
+    if (cmd === CMD_QUIT) break;
+    try {
+      if (cmd === CMD_ATTACH) {
+        const msg = receiveMessageOnPort(port);
+        current = msg?.message as Attachment | undefined;
+        if (current === undefined) throw new Error('no attachment posted');
+      } else if (cmd === CMD_DETACH) {
+        current = undefined;
+      } else if (current !== undefined) {
+        executeCall(current.data, ctrl[CTRL_N]!, current.words, ctrl[CTRL_AT]!, current.arena, part, ctrl[CTRL_PARTS]!);
+      }
+    } catch {
+      Atomics.store(ctrl, CTRL_ERROR, 1);
+    }
+    Atomics.add(ctrl, CTRL_DONE, 1);
+    Atomics.notify(ctrl, CTRL_DONE);
+  }
+  port.close();
+}
+
+workerLoop();

@@ -1,0 +1,57 @@
+/**
+ * The plan for people (`fray run --plan`): one line per kernel call with the kernel, its
+ * qubits and the instructions it fuses (named by their step, 1-based as in messages, and
+ * what they are), plus a JSON form with the same content.
+ */
+import type { Origin } from '../program/program.js';
+import type { Plan } from './plan.js';
+
+/** Short name of an instruction origin: 'step 3 cx', 'step 3 depolarizing', 'idle 120 ns'. */
+function originName(o: Origin | undefined, index: number): string {
+  if (o === undefined) return `#${index}`;
+  const what = o.what.startsWith('thermal during') ? 'thermal' : o.what;
+  return o.step < 0 ? what : `step ${o.step + 1} ${what}`;
+}
+
+/** What a call fuses, with repeats counted: 'step 1 ry ×2, step 1 amplitude_damping ×2, step 2 cx'. */
+export function describeSources(sources: readonly number[], origins: readonly Origin[]): string {
+  const counts = new Map<string, number>();
+  for (const i of sources) {
+    const name = originName(origins[i], i);
+    counts.set(name, (counts.get(name) ?? 0) + 1);
+  }
+  return [...counts].map(([name, c]) => (c > 1 ? `${name} ×${c}` : name)).join(', ');
+}
+
+/** The plan as a text table (kernel, qubits, fused instructions), with a one-line summary first. */
+export function formatPlan(plan: Plan, origins: readonly Origin[]): string {
+  const perKernel = new Map<string, number>();
+  for (const s of plan.steps) perKernel.set(s.kernel, (perKernel.get(s.kernel) ?? 0) + 1);
+  const summary = [...perKernel].map(([k, c]) => `${k} ${c}`).join(', ');
+  const lines: string[] = [];
+  lines.push(
+    `plan: ${plan.steps.length} kernel call${plan.steps.length === 1 ? '' : 's'} for ${plan.instructionCount} instruction${plan.instructionCount === 1 ? '' : 's'} on ${plan.n} qubit${plan.n === 1 ? '' : 's'}` +
+      ` (${plan.fused ? 'fused' : 'unfused'}${summary !== '' ? `; ${summary}` : ''})`,
+  );
+  const width = String(plan.steps.length).length;
+  plan.steps.forEach((s, i) => {
+    const qubits = s.kernel === 'diagonal' && s.binB !== undefined && s.binB.length > 0 ? `${s.binA!.join(',')} | ${s.binB.join(',')}` : s.qubits.join(',');
+    lines.push(`  ${String(i + 1).padStart(width)}  ${s.kernel.padEnd(8)} ${qubits.padEnd(9)} ${describeSources(s.sources, origins)}`);
+  });
+  return lines.join('\n') + '\n';
+}
+
+/** The plan as plain data: per call its kernel, qubits, instruction indices and their origins. */
+export function planToJson(plan: Plan, origins: readonly Origin[]): object {
+  return {
+    qubits: plan.n,
+    fused: plan.fused,
+    instructions: plan.instructionCount,
+    calls: plan.steps.map((s) => ({
+      kernel: s.kernel,
+      qubits: s.qubits,
+      instructions: s.sources,
+      fuses: s.sources.map((i) => origins[i] ?? null),
+    })),
+  };
+}

@@ -1,0 +1,79 @@
+/**
+ * Fusion of an instruction list into groups, each one superoperator on a few qubits.
+ *
+ * Rule (greedy, in program order; `last[q]` = the group that acted last on qubit q):
+ *  - an instruction on Q merges into group G when last[q] = G for every q in Q (so Q ⊆ G's
+ *    qubits and nothing acted on Q in between): S_G ← S_ins ∘ S_G;
+ *  - otherwise it opens a new group on Q, which first absorbs every group P with all its
+ *    qubits in Q and last[p] = P for each of them (P is then the latest thing on its qubits, so
+ *    it may move forward to the new group's place: only operations on disjoint qubits lie in
+ *    between, and those commute with it): S_new = S_ins ∘ (⊗ S_P).
+ * A gate's noise and idle channels therefore fold into the gate's superoperator, and 1-qubit
+ * groups fold into the next 2-qubit group on their qubit. Groups keep the position of their
+ * creation; the result lists them in that order, which is consistent with every qubit's
+ * timeline, so applying them in order reproduces the instruction list exactly.
+ */
+import type { Instruction } from '../engine/instruction.js';
+import type { CMatrix } from '../linalg/cmatrix.js';
+import { composeEmbedded, composeEmbeddedBefore } from './embedSuperoperator.js';
+import { instructionQubits, instructionSuperoperator } from './instructionSuperoperator.js';
+
+/** One fused group: a superoperator on `qubits` (first = most significant) and the instruction indices it contains, ascending. */
+export interface FusedGroup {
+  readonly qubits: readonly number[];
+  readonly superop: CMatrix;
+  readonly sources: readonly number[];
+}
+
+interface OpenGroup {
+  qubits: number[];
+  superop: CMatrix;
+  sources: number[];
+  alive: boolean;
+}
+
+/** Positions of `sub`'s qubits inside `group` (each must be present). */
+function positionsIn(sub: readonly number[], group: readonly number[]): number[] {
+  return sub.map((q) => {
+    const p = group.indexOf(q);
+    if (p < 0) throw new Error(`fuseInstructions: qubit ${q} not in group [${group.join(', ')}]`);
+    return p;
+  });
+}
+
+/** Fuses `instructions` on n qubits into groups by the rule above, in application order. */
+export function fuseInstructions(n: number, instructions: readonly Instruction[]): FusedGroup[] {
+  const last: (OpenGroup | undefined)[] = new Array<OpenGroup | undefined>(n).fill(undefined);
+  const groups: OpenGroup[] = [];
+  instructions.forEach((ins, i) => {
+    const Q = instructionQubits(ins);
+    const S = instructionSuperoperator(ins);
+    const g0 = last[Q[0]!];
+    if (g0 !== undefined && Q.every((q) => last[q] === g0)) {
+      g0.superop = composeEmbedded(S, positionsIn(Q, g0.qubits), g0.qubits.length, g0.superop);
+      g0.sources.push(i);
+      return;
+    }
+    const k = Q.length;
+    let superop = S;
+    const sources: number[] = [];
+    const seen = new Set<OpenGroup>();
+    for (const q of Q) {
+      const p = last[q];
+      if (p === undefined || seen.has(p)) continue;
+      seen.add(p);
+      if (p.qubits.every((x) => Q.includes(x) && last[x] === p)) {
+        // P acts before the instruction and on other qubits than any other absorbed group: S ∘ (⊗ S_P)
+        superop = composeEmbeddedBefore(superop, p.superop, positionsIn(p.qubits, Q), k);
+        sources.push(...p.sources);
+        p.alive = false;
+      }
+    }
+    sources.push(i);
+    sources.sort((a, b) => a - b);
+    const g: OpenGroup = { qubits: [...Q], superop, sources, alive: true };
+    for (const q of Q) last[q] = g;
+    groups.push(g);
+  });
+  return groups.filter((g) => g.alive).map((g) => ({ qubits: g.qubits, superop: g.superop, sources: g.sources }));
+}

@@ -1,0 +1,70 @@
+/**
+ * The superoperator (column-stacking vec, src/engine/superoperator.ts) of one engine
+ * instruction, with the qubits it acts on. A reset is the CPTP map with Kraus operators
+ * |0⟩⟨0| and |0⟩⟨1|: K₀ρK₀† + K₁ρK₁† = |0⟩⟨0| ⊗ (ρ₀₀ + ρ₁₁) = |0⟩⟨0|_q ⊗ Tr_q ρ, the same map
+ * the reference reset kernel applies, so the plan may fuse it like any channel.
+ */
+import type { Instruction } from '../engine/instruction.js';
+import { fromRows, type CMatrix } from '../linalg/cmatrix.js';
+
+/** Kraus operators of the reset to |0⟩: |0⟩⟨0| and |0⟩⟨1|. */
+export const RESET_KRAUS: readonly CMatrix[] = [
+  fromRows([
+    [1, 0],
+    [0, 0],
+  ]),
+  fromRows([
+    [0, 1],
+    [0, 0],
+  ]),
+];
+
+/** The qubits an instruction acts on, first listed = most significant factor. */
+export function instructionQubits(ins: Instruction): readonly number[] {
+  return ins.op === 'reset' ? [ins.qubit] : ins.qubits;
+}
+
+/**
+ * Σ_k conj(K_k) ⊗ K_k in one accumulation (the same matrix as krausToSuperoperator of
+ * src/engine/superoperator.ts, without intermediate matrices): entry
+ * S[(a + b·d), (a' + b'·d)] = Σ_k K_k[a][a'] · conj(K_k[b][b']).
+ */
+export function superoperatorOfKraus(kraus: readonly CMatrix[]): CMatrix {
+  const d = kraus[0]!.rows;
+  const d2 = d * d;
+  const out = new Float64Array(2 * d2 * d2);
+  for (const k of kraus) {
+    if (k.rows !== d || k.cols !== d) throw new RangeError(`superoperatorOfKraus: Kraus operator is ${k.rows}×${k.cols}, expected ${d}×${d}`);
+    const K = k.data;
+    for (let a = 0; a < d; a++) {
+      for (let a2 = 0; a2 < d; a2++) {
+        const xr = K[2 * (a * d + a2)]!;
+        const xi = K[2 * (a * d + a2) + 1]!;
+        if (xr === 0 && xi === 0) continue;
+        for (let b = 0; b < d; b++) {
+          const row = 2 * (a + b * d) * d2;
+          for (let b2 = 0; b2 < d; b2++) {
+            const yr = K[2 * (b * d + b2)]!;
+            const yi = -K[2 * (b * d + b2) + 1]!;
+            const e = row + 2 * (a2 + b2 * d);
+            out[e] = out[e]! + xr * yr - xi * yi;
+            out[e + 1] = out[e + 1]! + xr * yi + xi * yr;
+          }
+        }
+      }
+    }
+  }
+  return { rows: d2, cols: d2, data: out };
+}
+
+/** Superoperator of an instruction on instructionQubits(ins): conj(U) ⊗ U, Σ conj(K) ⊗ K, or the reset's. */
+export function instructionSuperoperator(ins: Instruction): CMatrix {
+  switch (ins.op) {
+    case 'unitary':
+      return superoperatorOfKraus([ins.matrix]);
+    case 'channel':
+      return superoperatorOfKraus(ins.kraus);
+    case 'reset':
+      return superoperatorOfKraus(RESET_KRAUS);
+  }
+}

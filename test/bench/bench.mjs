@@ -1,0 +1,185 @@
+// `npm run bench`: the performance table of fray (not part of `npm test`; no assertions).
+//  1. kernels: for 8, 10 and 12 qubits, each kernel's median time per pass and its ratio to a
+//     bare streaming pass over the same array, with 1 thread and split over 2 threads;
+//  2. the reference circuit circuits/bench/layers10x20.yaml (10 qubits × 20 layers) side by side:
+//     fray's whole process (`fray run --json`), fray's engine alone, fray --no-fuse, and the numpy
+//     peer of test/bench/numpyPeer.py (practitioner / hand-fused / hand-folded) when python3 with
+//     numpy is available;
+//  3. the same circuit shape on 12 and 13 qubits (time, peak resident memory).
+// Flags: --quick (fewer repetitions; skips --no-fuse and the practitioner numpy run),
+//        --skip-large (skips section 3).
+// The machine may be shared: medians of several runs are reported.
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { availableParallelism, cpus, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { loadCircuit } from '../../dist/api/loadCircuit.js';
+import { planLoaded } from '../../dist/api/simulate.js';
+import { runCompiled } from '../../dist/engine/runCompiled.js';
+import { sharedThreadPool, closeSharedThreadPool } from '../../dist/engine/threadPool.js';
+import { awaitOptimisedKernels } from '../../dist/engine/warmKernels.js';
+import { compilePlan } from '../../dist/plan/compilePlan.js';
+import { kernelTimes, median } from './kernelTimes.mjs';
+
+const root = fileURLToPath(new URL('../../', import.meta.url));
+const quick = process.argv.includes('--quick');
+const skipLarge = process.argv.includes('--skip-large');
+const cores = availableParallelism();
+const fmtMs = (ms) => (ms >= 1000 ? `${(ms / 1000).toFixed(2)} s` : `${ms.toFixed(ms < 10 ? 2 : 1)} ms`);
+const fmtX = (x) => `${x.toFixed(x < 10 ? 2 : 1)}×`;
+const out = [];
+const print = (s = '') => {
+  out.push(s);
+  console.log(s);
+};
+
+/** Wall time (ms) of a child process; throws when it fails. */
+function timeProcess(cmd, args, env = process.env) {
+  const t = performance.now();
+  const r = spawnSync(cmd, args, { cwd: root, env, encoding: 'utf8', maxBuffer: 1 << 26 });
+  const ms = performance.now() - t;
+  if (r.status !== 0) throw new Error(`${cmd} ${args.join(' ')} failed: ${r.stderr}`);
+  return { ms, stdout: r.stdout, stderr: r.stderr };
+}
+
+function medianOf(k, f) {
+  const v = Array.from({ length: k }, f).sort((a, b) => a - b);
+  return v[k >> 1];
+}
+
+print(`# fray bench — ${new Date().toISOString().slice(0, 10)}`);
+print();
+print(`machine: ${cpus()[0]?.model ?? 'unknown cpu'}, ${cores} core${cores === 1 ? '' : 's'} (os.availableParallelism), Node ${process.version}`);
+print();
+
+// ---- 1. kernels -----------------------------------------------------------------------------
+const pool = sharedThreadPool(2);
+pool.ready();
+awaitOptimisedKernels();
+print('## Kernels: one pass over ρ (median ms; ratio to the streaming pass; 2 threads)');
+print();
+print('| qubits | kernel | 1 thread | ÷ streaming | 2 threads | speed-up |');
+print('|---:|---|---:|---:|---:|---:|');
+for (const [n, reps] of [
+  [8, quick ? 15 : 41],
+  [10, quick ? 7 : 15],
+  [12, quick ? 3 : 5],
+]) {
+  for (const r of kernelTimes(n, reps, pool)) {
+    const two = r.ms2 !== undefined ? `${fmtMs(r.ms2)} | ${fmtX(r.ms / r.ms2)}` : '– | –';
+    print(`| ${n} | ${r.kernel} | ${fmtMs(r.ms)} | ${fmtX(r.ratio)} | ${two} |`);
+  }
+}
+print();
+
+// ---- 2. the reference circuit ---------------------------------------------------------------
+const circuit10 = 'circuits/bench/layers10x20.yaml';
+const fray = (file, ...extra) => ['bin/fray.js', 'run', file, '--json', ...extra];
+const rounds = quick ? 3 : 5;
+print(`## Reference circuit ${circuit10} (10 qubits × 20 layers; median of ${rounds} runs unless noted)`);
+print();
+const whole = medianOf(rounds, () => timeProcess('node', fray(circuit10)).ms);
+const whole1 = medianOf(rounds, () => timeProcess('node', fray(circuit10, '--threads', '1')).ms);
+const loaded = loadCircuit(join(root, circuit10));
+const planned = planLoaded(loaded);
+const engine = (threads) =>
+  median(rounds, () => {
+    const compiled = compilePlan(planLoaded(loaded).plan);
+    runCompiled(compiled, threads > 1 ? pool : undefined);
+  });
+const engine2 = engine(2);
+const engine1 = engine(1);
+const rows = [
+  [`fray, whole process (\`fray run --json\`, ${pool.parts} threads)`, whole],
+  ['fray, whole process, `--threads 1`', whole1],
+  [`fray engine alone (plan + ${planned.plan.steps.length} passes, in-process, 2 threads)`, engine2],
+  ['fray engine alone, 1 thread', engine1],
+];
+if (!quick) rows.push(['fray, whole process, `--no-fuse` (one general pass per instruction; 1 run)', timeProcess('node', fray(circuit10, '--no-fuse')).ms]);
+
+// the numpy peer reads fray's instruction list of the same circuit
+const py = spawnSync('python3', ['-c', 'import numpy; print(numpy.__version__)'], { encoding: 'utf8' });
+let numpyNote = '';
+if (py.status === 0) {
+  const dir = mkdtempSync(join(tmpdir(), 'fray-bench-'));
+  const opsFile = join(dir, 'ops.json');
+  const m = (c) => Array.from({ length: c.rows }, (_, i) => Array.from({ length: c.cols }, (_, j) => [c.data[2 * (i * c.cols + j)], c.data[2 * (i * c.cols + j) + 1]]));
+  const prog = planned.program;
+  const ops = prog.noisy.map((ins, i) => {
+    const step = prog.origins[i].step;
+    if (ins.op === 'unitary') return { op: 'unitary', qubits: ins.qubits, step, matrix: m(ins.matrix) };
+    if (ins.op === 'channel') return { op: 'channel', qubits: ins.qubits, step, kraus: ins.kraus.map(m) };
+    return { op: 'reset', qubits: [ins.qubit], step };
+  });
+  writeFileSync(opsFile, JSON.stringify({ n: prog.n, ops }));
+  // OPENBLAS_CORETYPE / OPENBLAS_L2_SIZE may be set on this machine and slow numpy: unset for numpy only
+  const env = { ...process.env };
+  delete env.OPENBLAS_CORETYPE;
+  delete env.OPENBLAS_L2_SIZE;
+  const peer = (variant) => JSON.parse(timeProcess('python3', [join(root, 'test/bench/numpyPeer.py'), opsFile, variant], env).stdout);
+  const variants = quick ? ['fused', 'folded'] : ['practitioner', 'fused', 'folded'];
+  const labels = {
+    practitioner: 'numpy practitioner (tensordot + moveaxis per operation, K ρ K† per Kraus operator; 1 run)',
+    fused: 'numpy, gate + its noise fused by hand into one superoperator per gate',
+    folded: 'numpy, fused and folded by hand into 2-qubit superoperators (what fray\'s plan does)',
+  };
+  const purityFray = (() => {
+    const rho = runCompiled(compilePlan(planned.plan));
+    let p = 0;
+    for (let i = 0; i < rho.data.length; i++) p += rho.data[i] * rho.data[i];
+    return p;
+  })();
+  for (const v of variants) {
+    const k = v === 'practitioner' ? 1 : rounds;
+    const results = Array.from({ length: k }, () => peer(v)).sort((a, b) => a.seconds - b.seconds);
+    const r = results[k >> 1];
+    if (Math.abs(r.purity - purityFray) > 1e-9) numpyNote += `\n(numpy ${v} purity ${r.purity} differs from fray's ${purityFray}!)`;
+    rows.push([labels[v] + ' — simulation only, no interpreter start-up', r.seconds * 1000]);
+  }
+  numpyNote += `\nnumpy ${py.stdout.trim()} agrees with fray on the purity Tr ρ² of the final state (to 1e-9).`;
+} else {
+  numpyNote = '\nnumpy peer skipped: python3 with numpy is not available on this machine.';
+}
+print(`| run | time | time ÷ fray whole process |`);
+print('|---|---:|---:|');
+for (const [label, ms] of rows) print(`| ${label} | ${fmtMs(ms)} | ${fmtX(ms / whole)} |`);
+print(numpyNote.trim());
+print();
+
+// ---- 3. scaling -------------------------------------------------------------------------------
+print('## Same circuit shape on more qubits (whole process `fray run --json`)');
+print();
+print('| circuit | threads | time | ÷ 10-qubit time (same threads) | peak resident memory | ÷ density matrix |');
+print('|---|---:|---:|---:|---:|---:|');
+const rss = (file, threads) => {
+  const r = timeProcess('node', [join(root, 'test/bench/peakMemory.mjs'), file, '--threads', String(threads)]);
+  return { ms: r.ms, rss: Number(r.stdout.trim().split('\n').pop()) };
+};
+const medianRun = (runs) => [...runs].sort((a, b) => a.ms - b.ms)[runs.length >> 1];
+if (!skipLarge) {
+  // 12 qubits with 2 and 1 threads, interleaved so that load from other work hits both alike
+  const k = quick ? 1 : 3;
+  const two = [];
+  const one = [];
+  for (let i = 0; i < k; i++) {
+    two.push(rss('circuits/bench/layers12x20.yaml', 2));
+    one.push(rss('circuits/bench/layers12x20.yaml', 1));
+  }
+  const r13 = rss('circuits/bench/layers13x20.yaml', 2);
+  const lines = [
+    [12, 2, medianRun(two), whole, `median of ${k}`],
+    [12, 1, medianRun(one), whole1, `median of ${k}`],
+    [13, 2, r13, whole, '1 run'],
+  ];
+  for (const [n, threads, r, base, note] of lines) {
+    const rhoBytes = 16 * 4 ** n;
+    print(`| circuits/bench/layers${n}x20.yaml (${note}) | ${threads} | ${fmtMs(r.ms)} | ${fmtX(r.ms / base)} | ${(r.rss / 2 ** 20).toFixed(0)} MiB | ${fmtX(r.rss / rhoBytes)} |`);
+  }
+  print();
+  print(`Two threads against one on 12 qubits (whole process): ${fmtX(medianRun(one).ms / medianRun(two).ms)}.`);
+}
+print();
+closeSharedThreadPool();
+writeFileSync(join(root, 'test/bench/last-run.md'), out.join('\n') + '\n');
+console.log('(table also written to test/bench/last-run.md)');
