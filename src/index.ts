@@ -3,7 +3,7 @@
  * those who need them: read (loadCircuit / parseCircuitText) → schedule (scheduleCircuit)
  * → program (buildProgram) → engine (runNoisy / runIdeal) → results (computeFigures).
  * Conventions (bit order, layouts, fidelity definitions) are stated in src/engine/layout.ts,
- * src/engine/superoperator.ts and the README.
+ * src/linalg/superoperator.ts and the README.
  */
 export { simulate, simulateLoaded, scheduleCircuit, measuredQubits } from './api/simulate.js';
 export type { Simulation, SimulateOptions, RunResult } from './api/simulate.js';

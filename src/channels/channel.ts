@@ -10,7 +10,7 @@
  * modify them.
  */
 import { type CMatrix, adjoint, mul, identity } from '../linalg/cmatrix.js';
-import { krausToSuperoperator } from '../engine/superoperator.js';
+import { krausToSuperoperator } from '../linalg/superoperator.js';
 import { choiToSuperoperator, krausToChoi, superoperatorToChoi } from './choi.js';
 import { type ChannelForm, MAX_CHANNEL_QUBITS, qubitsOfDim } from './conventions.js';
 import { type HermitianEigen, hermitianEigen } from '../linalg/hermitianEigen.js';

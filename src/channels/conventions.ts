@@ -4,7 +4,7 @@
  * A channel (more generally a linear map) E takes d × d matrices to d × d matrices, d = 2^k
  * for k = 1 … MAX_CHANNEL_QUBITS qubits. Qubit order and tensor factors follow
  * src/engine/layout.ts (qubit 0 = leftmost, most significant factor); vectorisation follows
- * src/engine/superoperator.ts (column stacking, vec(B)[i + j·d] = B[i][j]). In those terms:
+ * src/linalg/superoperator.ts (column stacking, vec(B)[i + j·d] = B[i][j]). In those terms:
  *
  * - Kraus form: E(ρ) = Σ_k K_k ρ K_k†, each K_k a d × d matrix (only for completely positive
  *   maps). The MINIMAL Kraus form has as many operators as the rank of the Choi matrix.
@@ -14,7 +14,7 @@
  *   (column-stacked vec puts the column index i in the most significant place, matching the
  *   input-first order). Partial traces: Tr_out J = (Σ_k K_k†K_k)ᵀ, Tr_in J = E(I).
  * - Superoperator (d² × d²) acting on the column-stacked vec(ρ): vec(E(ρ)) = S·vec(ρ), so
- *   vec(AρB) = (Bᵀ ⊗ A)·vec(ρ) and S = Σ_k conj(K_k) ⊗ K_k (src/engine/superoperator.ts).
+ *   vec(AρB) = (Bᵀ ⊗ A)·vec(ρ) and S = Σ_k conj(K_k) ⊗ K_k (src/linalg/superoperator.ts).
  *   Choi and superoperator hold the same numbers reshuffled:
  *     S[a + b·d][i + j·d] = J[i·d + a][j·d + b].
  * - Pauli transfer matrix (d² × d², real for Hermiticity-preserving maps):

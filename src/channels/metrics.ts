@@ -105,7 +105,7 @@ export function pauliErrorProbabilities(e: Channel, u?: CMatrix): PauliError[] {
   const D = d * d;
   let j = e.choi();
   if (u !== undefined) {
-    // S_Λ = S_{U†}·S_E with S_{U†} = conj(U†) ⊗ U† = Uᵀ ⊗ U† (src/engine/superoperator.ts).
+    // S_Λ = S_{U†}·S_E with S_{U†} = conj(U†) ⊗ U† = Uᵀ ⊗ U† (src/linalg/superoperator.ts).
     const sUd = Channel.fromUnitary(adjoint(u)).superoperator();
     j = superoperatorToChoi(mul(sUd, e.superoperator()));
   }

@@ -14,7 +14,7 @@ import { applyReal2 } from './kernelReal2.js';
 import type { Kernels } from './kernels.js';
 import type { DensityMatrix } from './layout.js';
 import { isTracePreservingRealForm, realFormOf } from './realForm.js';
-import { krausToSuperoperator, superoperatorOf } from './superoperator.js';
+import { krausToSuperoperator, superoperatorOf } from '../linalg/superoperator.js';
 import { checkTargets } from './targets.js';
 import { fromRows } from '../linalg/cmatrix.js';
 

@@ -10,7 +10,7 @@
  */
 import type { CMatrix } from '../linalg/cmatrix.js';
 import { qubitMask, type DensityMatrix } from './layout.js';
-import { krausToSuperoperator } from './superoperator.js';
+import { krausToSuperoperator } from '../linalg/superoperator.js';
 import { checkTargets, nextRest, targetMask, targetOffsets } from './targets.js';
 
 /** The in-place register operations the engine runs on a density matrix. */

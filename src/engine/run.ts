@@ -6,7 +6,7 @@ import { createDensityMatrix } from './densityMatrix.js';
 import type { Instruction } from './instruction.js';
 import { referenceKernels, type Kernels } from './kernels.js';
 import type { DensityMatrix, StateVector } from './layout.js';
-import { krausToSuperoperator } from './superoperator.js';
+import { krausToSuperoperator } from '../linalg/superoperator.js';
 import { applyUnitaryToState, createStateVector, resetStateVector, stateToDensityMatrix } from './stateVector.js';
 
 /**

@@ -3,7 +3,9 @@
  * gate's qubits, in which order, and the solve that turns a calibrated `error: r`
  * (average gate infidelity) into a depolarizing probability.
  */
-import { type CMatrix, identity } from '../linalg/cmatrix.js';
+import { embed } from '../circuit/compose.js';
+import { type CMatrix, identity, mul, trace } from '../linalg/cmatrix.js';
+import { krausToSuperoperator } from '../linalg/superoperator.js';
 import {
   type KrausChannel,
   amplitudeDamping,
@@ -15,7 +17,7 @@ import {
   phaseFlip,
   thermalRelaxation,
 } from './channels.js';
-import { averageGateFidelity, entanglementFidelity } from './fidelity.js';
+import { entanglementFidelity } from './fidelity.js';
 import { type NoiseKinds, NOISE_KIND_ORDER } from './kinds.js';
 
 /** Relaxation constants of one qubit: T1 and T2 in ns (Infinity = none), equilibrium excited population. */
@@ -266,102 +268,17 @@ function isIdentityChannel(kraus: readonly CMatrix[]): boolean {
 }
 
 /**
- * The 2^k × 2^k operator acting as `op` on the local `targets` (first target = most
- * significant factor of op) and as the identity on the other qubits of a k-qubit register
- * (qubit 0 = most significant, as in src/engine/layout.ts).
- */
-function embed(op: CMatrix, targets: readonly number[], k: number): CMatrix {
-  const d = 1 << k;
-  const m = targets.length;
-  if (op.rows !== 1 << m) throw new RangeError(`embed: ${op.rows}×${op.cols} operator on ${m} targets`);
-  if (m === k && targets.every((t, i) => t === i)) return op;
-  let targetMask = 0;
-  for (const t of targets) targetMask |= 1 << (k - 1 - t);
-  const sub = new Int32Array(d);
-  for (let r = 0; r < d; r++) {
-    let s = 0;
-    for (let j = 0; j < m; j++) s |= ((r >> (k - 1 - targets[j]!)) & 1) << (m - 1 - j);
-    sub[r] = s;
-  }
-  const data = new Float64Array(2 * d * d);
-  const O = op.data;
-  const sd = op.cols;
-  for (let r = 0; r < d; r++) {
-    for (let c = 0; c < d; c++) {
-      if ((r & ~targetMask) !== (c & ~targetMask)) continue;
-      const src = 2 * (sub[r]! * sd + sub[c]!);
-      data[2 * (r * d + c)] = O[src]!;
-      data[2 * (r * d + c) + 1] = O[src + 1]!;
-    }
-  }
-  return { rows: d, cols: d, data };
-}
-
-/**
  * Entanglement fidelity (vs the identity) of the sequence of placed channels on k qubits:
- * Tr(S_n ⋯ S_1)/d² with S = Σ_k K_k ⊗ K̄_k the superoperator of each channel acting on
- * row-major vec(ρ) (so Tr S = Σ_k |Tr K_k|²).
+ * F_e = Tr(S_n ⋯ S_1)/d², each S the superoperator of a channel embedded on its local targets
+ * (Tr S = Σ_k |Tr K_k|² in any vectorisation, so F_e = Σ |Tr K|²/d² for one channel).
  */
 function sequenceEntanglementFidelity(placed: readonly PlacedChannel[], k: number): number {
   if (placed.length === 0) return 1;
-  if (placed.length === 1) return entanglementFidelity(placed[0]!.kraus.map((op) => embed(op, placed[0]!.targets, k)));
   const d = 1 << k;
-  const D = d * d;
-  let total: Float64Array | undefined;
+  let total: CMatrix | undefined;
   for (const ch of placed) {
-    const s = superoperator(
-      ch.kraus.map((op) => embed(op, ch.targets, k)),
-      d,
-    );
-    total = total === undefined ? s : matmul(s, total, D);
+    const s = krausToSuperoperator(ch.kraus.map((op) => embed(op, ch.targets, k)));
+    total = total === undefined ? s : mul(s, total);
   }
-  let tr = 0;
-  for (let i = 0; i < D; i++) tr += total![2 * (i * D + i)]!;
-  return tr / D;
-}
-
-/** Σ_k K_k ⊗ conj(K_k) as a D × D interleaved array, D = d². */
-function superoperator(kraus: readonly CMatrix[], d: number): Float64Array {
-  const D = d * d;
-  const S = new Float64Array(2 * D * D);
-  for (const op of kraus) {
-    const K = op.data;
-    for (let i = 0; i < d; i++) {
-      for (let a = 0; a < d; a++) {
-        const xr = K[2 * (i * d + a)]!;
-        const xi = K[2 * (i * d + a) + 1]!;
-        if (xr === 0 && xi === 0) continue;
-        for (let j = 0; j < d; j++) {
-          const row = i * d + j;
-          for (let b = 0; b < d; b++) {
-            const yr = K[2 * (j * d + b)]!;
-            const yi = -K[2 * (j * d + b) + 1]!;
-            const idx = 2 * (row * D + a * d + b);
-            S[idx] += xr * yr - xi * yi;
-            S[idx + 1] += xr * yi + xi * yr;
-          }
-        }
-      }
-    }
-  }
-  return S;
-}
-
-/** a · b for n × n interleaved complex arrays. */
-function matmul(a: Float64Array, b: Float64Array, n: number): Float64Array {
-  const out = new Float64Array(2 * n * n);
-  for (let i = 0; i < n; i++) {
-    for (let l = 0; l < n; l++) {
-      const ar = a[2 * (i * n + l)]!;
-      const ai = a[2 * (i * n + l) + 1]!;
-      if (ar === 0 && ai === 0) continue;
-      for (let j = 0; j < n; j++) {
-        const br = b[2 * (l * n + j)]!;
-        const bi = b[2 * (l * n + j) + 1]!;
-        out[2 * (i * n + j)] += ar * br - ai * bi;
-        out[2 * (i * n + j) + 1] += ar * bi + ai * br;
-      }
-    }
-  }
-  return out;
+  return trace(total!)[0] / (d * d);
 }

@@ -1,6 +1,6 @@
 /**
  * Superoperators on a subset of a group's qubits, lifted to the whole group. Convention:
- * column-stacking vec of src/engine/superoperator.ts; local index a of a k-qubit group has the
+ * column-stacking vec of src/linalg/superoperator.ts; local index a of a k-qubit group has the
  * group's first qubit as its most significant bit (src/engine/layout.ts).
  */
 import type { CMatrix } from '../linalg/cmatrix.js';

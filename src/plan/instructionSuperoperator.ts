@@ -1,5 +1,5 @@
 /**
- * The superoperator (column-stacking vec, src/engine/superoperator.ts) of one engine
+ * The superoperator (column-stacking vec, src/linalg/superoperator.ts) of one engine
  * instruction, with the qubits it acts on. A reset is the CPTP map with Kraus operators
  * |0⟩⟨0| and |0⟩⟨1|: K₀ρK₀† + K₁ρK₁† = |0⟩⟨0| ⊗ (ρ₀₀ + ρ₁₁) = |0⟩⟨0|_q ⊗ Tr_q ρ, the same map
  * the reference reset kernel applies, so the plan may fuse it like any channel.
@@ -26,7 +26,7 @@ export function instructionQubits(ins: Instruction): readonly number[] {
 
 /**
  * Σ_k conj(K_k) ⊗ K_k in one accumulation (the same matrix as krausToSuperoperator of
- * src/engine/superoperator.ts, without intermediate matrices): entry
+ * src/linalg/superoperator.ts, without intermediate matrices): entry
  * S[(a + b·d), (a' + b'·d)] = Σ_k K_k[a][a'] · conj(K_k[b][b']).
  */
 export function superoperatorOfKraus(kraus: readonly CMatrix[]): CMatrix {

@@ -4,7 +4,7 @@ import { CompiledPlanBuilder } from '../../dist/engine/compiledPlan.js';
 import { executeCall } from '../../dist/engine/kernelCall.js';
 import { realFormOf } from '../../dist/engine/realForm.js';
 import { createSharedDensityMatrix } from '../../dist/engine/runCompiled.js';
-import { krausToSuperoperator, superoperatorOf } from '../../dist/engine/superoperator.js';
+import { krausToSuperoperator, superoperatorOf } from '../../dist/linalg/superoperator.js';
 import { awaitOptimisedKernels } from '../../dist/engine/warmKernels.js';
 import { amplitudeDamping, depolarizing, phaseDamping } from '../../dist/noise/channels.js';
 import { fromRows, mul } from '../../dist/linalg/cmatrix.js';

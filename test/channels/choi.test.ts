@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { type CMatrix, add, adjoint, fromRows, identity, mul, scale, transpose } from '../../src/linalg/cmatrix.js';
-import { krausToSuperoperator } from '../../src/engine/superoperator.js';
+import { krausToSuperoperator } from '../../src/linalg/superoperator.js';
 import { choiToSuperoperator, krausToChoi, superoperatorToChoi, traceInput, traceOutput } from '../../src/channels/choi.js';
 import { Channel } from '../../src/channels/channel.js';
 import { checkPhysicality } from '../../src/channels/physicality.js';

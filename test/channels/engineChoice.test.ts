@@ -8,7 +8,7 @@ import type { CMatrix } from '../../src/linalg/cmatrix.js';
 import { referenceKernels, type Kernels } from '../../src/engine/kernels.js';
 import { runNoisy } from '../../src/engine/run.js';
 import type { Instruction } from '../../src/engine/instruction.js';
-import { krausToSuperoperator } from '../../src/engine/superoperator.js';
+import { krausToSuperoperator } from '../../src/linalg/superoperator.js';
 import { builtinGate } from '../../src/circuit/gates.js';
 import { amplitudeDampingChannel, depolarizingChannel } from '../../src/channels/builtins.js';
 import { mulberry32, randomKraus } from './helpers.js';

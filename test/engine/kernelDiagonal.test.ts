@@ -3,7 +3,7 @@ import { CompiledPlanBuilder } from '../../src/engine/compiledPlan.js';
 import { cloneDensityMatrix } from '../../src/engine/densityMatrix.js';
 import { executeCall } from '../../src/engine/kernelCall.js';
 import { referenceKernels } from '../../src/engine/kernels.js';
-import { krausToSuperoperator } from '../../src/engine/superoperator.js';
+import { krausToSuperoperator } from '../../src/linalg/superoperator.js';
 import { diag, type CMatrix } from '../../src/linalg/cmatrix.js';
 import { diagonalBins, diagonalTable, type DiagonalMember } from '../../src/plan/diagonalBatch.js';
 import { mulberry32, randomDensityMatrix } from './helpers.js';

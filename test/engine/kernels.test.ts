@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { referenceKernels } from '../../src/engine/kernels.js';
 import { cloneDensityMatrix, createDensityMatrix, hermiticityResidual, minEigenvalue, traceOf } from '../../src/engine/densityMatrix.js';
-import { krausToSuperoperator } from '../../src/engine/superoperator.js';
+import { krausToSuperoperator } from '../../src/linalg/superoperator.js';
 import { fromRows, identity } from '../../src/linalg/cmatrix.js';
 import { DENSE_AGREEMENT, denseChannel, denseReset, rhoDiff, rhoToMath } from './dense.js';
 import { mulberry32, randInt, randomDensityMatrix, randomKraus, randomTargets, randomUnitary } from './helpers.js';

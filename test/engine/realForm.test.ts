@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { applyReal1, applyReal1Tp } from '../../src/engine/kernelReal1.js';
 import { isTracePreservingRealForm, realFormOf } from '../../src/engine/realForm.js';
-import { krausToSuperoperator } from '../../src/engine/superoperator.js';
+import { krausToSuperoperator } from '../../src/linalg/superoperator.js';
 import { referenceKernels } from '../../src/engine/kernels.js';
 import { cloneDensityMatrix } from '../../src/engine/densityMatrix.js';
 import { add, conj, kron, scale, type CMatrix } from '../../src/linalg/cmatrix.js';
@@ -22,7 +22,7 @@ describe('realFormOf', () => {
     const rng = mulberry32(13);
     const a = randomGaussianMatrix(rng, 2, 2);
     const b = randomGaussianMatrix(rng, 2, 2);
-    // superoperator of ρ → A ρ B† is conj(B) ⊗ A (column-stacking vec, src/engine/superoperator.ts)
+    // superoperator of ρ → A ρ B† is conj(B) ⊗ A (column-stacking vec, src/linalg/superoperator.ts)
     const s: CMatrix = kron(conj(b), a);
     expect(realFormOf(s, 1)).toBeUndefined();
     // while the Hermitian-preserving sum AρB† + BρA† is accepted

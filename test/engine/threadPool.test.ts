@@ -2,7 +2,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { CompiledPlanBuilder } from '../../src/engine/compiledPlan.js';
 import { realFormOf } from '../../src/engine/realForm.js';
 import { applyCompiled, createSharedDensityMatrix } from '../../src/engine/runCompiled.js';
-import { krausToSuperoperator } from '../../src/engine/superoperator.js';
+import { krausToSuperoperator } from '../../src/linalg/superoperator.js';
 import { closeSharedThreadPool, sharedThreadPool, ThreadPool } from '../../src/engine/threadPool.js';
 import { mulberry32, randomKraus } from './helpers.js';
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { krausToSuperoperator } from '../../src/engine/superoperator.js';
+import { krausToSuperoperator } from '../../src/linalg/superoperator.js';
 import { identity, kron, maxAbsDiff, mul, type CMatrix } from '../../src/linalg/cmatrix.js';
 import { composeEmbedded, composeEmbeddedBefore, embedSuperoperator } from '../../src/plan/embedSuperoperator.js';
 import { superoperatorOfKraus } from '../../src/plan/instructionSuperoperator.js';

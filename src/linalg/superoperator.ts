@@ -11,7 +11,7 @@
  * The k-qubit block the kernels transform follows ./layout.ts: local index i of the
  * block has the first target qubit as its most significant bit.
  */
-import { add, conj, kron, zeros, type CMatrix } from '../linalg/cmatrix.js';
+import { add, conj, kron, zeros, type CMatrix } from './cmatrix.js';
 
 /** Superoperator S = Σ_k conj(K_k) ⊗ K_k of the channel ρ → Σ_k K_k ρ K_k† (column-stacking vec). */
 export function krausToSuperoperator(kraus: readonly CMatrix[]): CMatrix {

@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { conj, kron, type Matrix, multiply, ctranspose, transpose, add, matrix } from 'mathjs';
-import { krausToSuperoperator, superoperatorOf } from '../../src/engine/superoperator.js';
+import { krausToSuperoperator, superoperatorOf } from '../../src/linalg/superoperator.js';
 import { maxAbsDiff } from '../../src/linalg/cmatrix.js';
-import { DENSE_AGREEMENT, maxDiffToMath, toMath } from './dense.js';
-import { mulberry32, randomGaussianMatrix, randomKraus, randomUnitary } from './helpers.js';
+import { DENSE_AGREEMENT, maxDiffToMath, toMath } from '../engine/dense.js';
+import { mulberry32, randomGaussianMatrix, randomKraus, randomUnitary } from '../engine/helpers.js';
 
 /** Column-stacking vec of a mathjs matrix: vec(M)[i + j·rows] = M[i][j], as a column. */
 function vec(m: Matrix): Matrix {
