@@ -16,18 +16,9 @@ import type { DensityMatrix } from './layout.js';
 import { isTracePreservingRealForm, realFormOf } from './realForm.js';
 import { krausToSuperoperator, superoperatorOf } from '../linalg/superoperator.js';
 import { checkTargets } from './targets.js';
-import { fromRows } from '../linalg/cmatrix.js';
+import { RESET_KRAUS } from './instruction.js';
 
-const RESET_SUPEROPERATOR = krausToSuperoperator([
-  fromRows([
-    [1, 0],
-    [0, 0],
-  ]),
-  fromRows([
-    [0, 1],
-    [0, 0],
-  ]),
-]);
+const RESET_SUPEROPERATOR = krausToSuperoperator(RESET_KRAUS);
 
 /** vec(B) → S·vec(B) on `qubits` with the fastest applicable kernel (single-threaded). */
 function applySuperoperator(rho: DensityMatrix, qubits: readonly number[], s: CMatrix): void {

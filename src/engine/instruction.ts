@@ -1,4 +1,4 @@
-import type { CMatrix } from '../linalg/cmatrix.js';
+import { fromRows, type CMatrix } from '../linalg/cmatrix.js';
 
 /**
  * One step the engine executes on the register, in program order. Qubit lists follow
@@ -12,3 +12,15 @@ export type Instruction =
   | { readonly op: 'channel'; readonly qubits: readonly number[]; readonly kraus: readonly CMatrix[] }
   /** ρ → |0⟩⟨0|_q ⊗ Tr_q ρ. */
   | { readonly op: 'reset'; readonly qubit: number };
+
+/** Kraus operators of the 'reset' instruction on one qubit: |0⟩⟨0| and |0⟩⟨1| (ρ → |0⟩⟨0| Tr ρ). */
+export const RESET_KRAUS: readonly CMatrix[] = [
+  fromRows([
+    [1, 0],
+    [0, 0],
+  ]),
+  fromRows([
+    [0, 1],
+    [0, 0],
+  ]),
+];

@@ -4,20 +4,9 @@
  * |0⟩⟨0| and |0⟩⟨1|: K₀ρK₀† + K₁ρK₁† = |0⟩⟨0| ⊗ (ρ₀₀ + ρ₁₁) = |0⟩⟨0|_q ⊗ Tr_q ρ, the same map
  * the reference reset kernel applies, so the plan may fuse it like any channel.
  */
-import type { Instruction } from '../engine/instruction.js';
-import { fromRows, type CMatrix } from '../linalg/cmatrix.js';
+import { RESET_KRAUS, type Instruction } from '../engine/instruction.js';
+import type { CMatrix } from '../linalg/cmatrix.js';
 
-/** Kraus operators of the reset to |0⟩: |0⟩⟨0| and |0⟩⟨1|. */
-export const RESET_KRAUS: readonly CMatrix[] = [
-  fromRows([
-    [1, 0],
-    [0, 0],
-  ]),
-  fromRows([
-    [0, 1],
-    [0, 0],
-  ]),
-];
 
 /** The qubits an instruction acts on, first listed = most significant factor. */
 export function instructionQubits(ins: Instruction): readonly number[] {

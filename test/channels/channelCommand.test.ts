@@ -2,29 +2,10 @@
  * `fray channel` end to end through main() with captured output: the demo files, every
  * option, the JSON shape, and located errors with exit status 2 (the foundation's contract).
  */
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { main } from '../../src/cli/main.js';
+import { fray, tempFile, LOCATED } from '../helpers/cli.js';
 import { readCircuit } from '../../src/format/circuitFile.js';
 import { ProblemList } from '../../src/format/problem.js';
-
-async function fray(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const code = await main(argv, { stdout: { write: (s: string) => (out += s) }, stderr: { write: (s: string) => (err += s) } });
-  return { code, out, err };
-}
-
-function tempFile(name: string, text: string): string {
-  const dir = mkdtempSync(join(tmpdir(), 'fray-channel-'));
-  const path = join(dir, name);
-  writeFileSync(path, text);
-  return path;
-}
-
-const LOCATED = /^[^\s:][^:]*:\d+:\d+: \S/;
 
 describe('fray channel on the demo files', () => {
   it('tomography fit: not completely positive, not even positive, with the nearest CPTP channel to paste', async () => {

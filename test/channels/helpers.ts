@@ -5,56 +5,16 @@
  */
 import { type CMatrix, add, adjoint, identity, kron, mul, zeros } from '../../src/linalg/cmatrix.js';
 import { gaussian, mulberry32 } from '../helpers/random.js';
+import { orthonormaliseColumns, randomGaussianMatrix } from '../engine/helpers.js';
 
 export { gaussian, mulberry32 };
 
 /** Agreement required for conversions that are exact up to rounding. */
 export const ROUND_TRIP = 1e-12;
 
-/** rows × cols matrix of independent standard complex Gaussian entries. */
-export function randomGaussian(rng: () => number, rows: number, cols: number): CMatrix {
-  const m = zeros(rows, cols);
-  for (let i = 0; i < m.data.length; i++) m.data[i] = gaussian(rng);
-  return m;
-}
-
-/** Q of the QR factorisation of m (rows ≥ cols), by modified Gram–Schmidt: an isometry, Q†Q = I. */
-export function qrIsometry(m: CMatrix): CMatrix {
-  const { rows, cols } = m;
-  const x = Float64Array.from(m.data);
-  for (let j = 0; j < cols; j++) {
-    for (let i = 0; i < j; i++) {
-      let pr = 0;
-      let pi = 0;
-      for (let r = 0; r < rows; r++) {
-        const ar = x[2 * (r * cols + i)]!;
-        const ai = x[2 * (r * cols + i) + 1]!;
-        const br = x[2 * (r * cols + j)]!;
-        const bi = x[2 * (r * cols + j) + 1]!;
-        pr += ar * br + ai * bi;
-        pi += ar * bi - ai * br;
-      }
-      for (let r = 0; r < rows; r++) {
-        const ar = x[2 * (r * cols + i)]!;
-        const ai = x[2 * (r * cols + i) + 1]!;
-        x[2 * (r * cols + j)] -= pr * ar - pi * ai;
-        x[2 * (r * cols + j) + 1] -= pr * ai + pi * ar;
-      }
-    }
-    let norm = 0;
-    for (let r = 0; r < rows; r++) norm += x[2 * (r * cols + j)]! ** 2 + x[2 * (r * cols + j) + 1]! ** 2;
-    norm = Math.sqrt(norm);
-    for (let r = 0; r < rows; r++) {
-      x[2 * (r * cols + j)] /= norm;
-      x[2 * (r * cols + j) + 1] /= norm;
-    }
-  }
-  return { rows, cols, data: x };
-}
-
 /** Random d × d unitary (QR of a complex Gaussian matrix). */
 export function randomUnitary(rng: () => number, d: number): CMatrix {
-  return qrIsometry(randomGaussian(rng, d, d));
+  return orthonormaliseColumns(randomGaussianMatrix(rng, d, d));
 }
 
 /**
@@ -62,7 +22,7 @@ export function randomUnitary(rng: () => number, d: number): CMatrix {
  * read with the environment factor last, K_k[a][i] = V[a·r + k][i] (so Σ K†K = V†V = I).
  */
 export function randomKraus(rng: () => number, d: number, r: number): CMatrix[] {
-  const v = qrIsometry(randomGaussian(rng, d * r, d));
+  const v = orthonormaliseColumns(randomGaussianMatrix(rng, d * r, d));
   const out: CMatrix[] = [];
   for (let k = 0; k < r; k++) {
     const m = zeros(d, d);
@@ -79,7 +39,7 @@ export function randomKraus(rng: () => number, d: number, r: number): CMatrix[] 
 
 /** Random d × d density matrix G G†/Tr(G G†). */
 export function randomDensity(rng: () => number, d: number): CMatrix {
-  const g = randomGaussian(rng, d, d);
+  const g = randomGaussianMatrix(rng, d, d);
   const r = mul(g, adjoint(g));
   let t = 0;
   for (let i = 0; i < d; i++) t += r.data[2 * (i * d + i)]!;
@@ -89,7 +49,7 @@ export function randomDensity(rng: () => number, d: number): CMatrix {
 
 /** Random pure state as a d × 1 column. */
 export function randomKet(rng: () => number, d: number): CMatrix {
-  return qrIsometry(randomGaussian(rng, d, 1));
+  return qrIsometry(randomGaussianMatrix(rng, d, 1));
 }
 
 /** Σ_k K_k ρ K_k†, straight from the definition. */

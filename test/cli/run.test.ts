@@ -1,26 +1,6 @@
 import { execFileSync, spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { main } from '../../src/cli/main.js';
-
-/** Runs the CLI in-process with captured output. */
-async function fray(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const code = await main(argv, { stdout: { write: (s: string) => (out += s) }, stderr: { write: (s: string) => (err += s) } });
-  return { code, out, err };
-}
-
-function tempFile(name: string, text: string): string {
-  const dir = mkdtempSync(join(tmpdir(), 'fray-cli-'));
-  const path = join(dir, name);
-  writeFileSync(path, text);
-  return path;
-}
-
-const LOCATED = /^[^\s:][^:]*:\d+:\d+: \S/;
+import { fray, tempFile, LOCATED } from '../helpers/cli.js';
 
 describe('fray run', () => {
   it('prints the report with header, fidelity block and outcome table', async () => {

@@ -1,13 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { main } from '../../src/cli/main.js';
-
-/** Runs the CLI in-process with captured output. */
-async function fray(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const code = await main(argv, { stdout: { write: (s: string) => (out += s) }, stderr: { write: (s: string) => (err += s) } });
-  return { code, out, err };
-}
+import { fray } from '../helpers/cli.js';
 
 /** Every number of two equally shaped JSON values within `tol`, every other value equal. */
 function sameShape(a: unknown, b: unknown, tol: number): boolean {
