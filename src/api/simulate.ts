@@ -17,7 +17,7 @@ import type { IdealState } from '../results/fidelity.js';
 import { computeFigures, DEFAULT_SEED, type Figures } from '../results/report.js';
 import { scheduleOperations, type Schedule } from '../schedule/schedule.js';
 import { loadCircuit, type LoadedCircuit, type LoadOptions } from './loadCircuit.js';
-import { pauliStringProblem } from '../format/circuitFile.js';
+import { pauliStringProblem } from '../circuit/pauliString.js';
 
 /** Options of one simulation run. */
 export interface SimulateOptions {

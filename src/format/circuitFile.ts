@@ -1,4 +1,5 @@
 import { evaluateReal, RESERVED_NAMES } from '../circuit/expression.js';
+import { pauliStringProblem } from '../circuit/pauliString.js';
 import { suggest } from '../circuit/suggest.js';
 import type { Circuit, CustomChannel, Register } from '../circuit/circuit.js';
 import { readCustomChannels } from './customChannels.js';
@@ -96,15 +97,6 @@ export function readCircuit(
     stepsAt: se.keyAt,
     qubitsAt: qe!.value.at,
   };
-}
-
-/** Why `s` is not a Pauli string over n qubits (letters I, X, Y, Z; qubit 0 leftmost), or undefined. */
-export function pauliStringProblem(s: string, n: number): string | undefined {
-  if (!/^[IXYZ]*$/.test(s)) {
-    return `'${s}' is not a Pauli string; use the capital letters I, X, Y, Z, one per qubit (qubit 0 leftmost)`;
-  }
-  if (s.length !== n) return `Pauli string '${s}' has ${s.length} letters but the circuit has ${n} qubits; give one letter per qubit`;
-  return undefined;
 }
 
 function readParams(

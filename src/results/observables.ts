@@ -11,21 +11,7 @@
  */
 import type { DensityMatrix, StateVector } from '../engine/layout.js';
 import { isDensityMatrix } from './stateKind.js';
-
-/** Why `s` is not a Pauli string on n qubits (length n, letters I X Y Z uppercase), or undefined when it is one. */
-export function validatePauliString(s: string, n: number): string | undefined {
-  if (typeof s !== 'string') return 'a Pauli string must be a string of the letters I, X, Y, Z';
-  if (s.length !== n) {
-    return `Pauli string '${s}' has ${s.length} letters, expected one per qubit (${n})`;
-  }
-  for (let q = 0; q < s.length; q++) {
-    const c = s[q]!;
-    if (c !== 'I' && c !== 'X' && c !== 'Y' && c !== 'Z') {
-      return `Pauli string '${s}' has '${c}' for qubit ${q}; use the uppercase letters I, X, Y, Z`;
-    }
-  }
-  return undefined;
-}
+import { pauliStringProblem } from '../circuit/pauliString.js';
 
 /** Parity (0 or 1) of the number of set bits of a non-negative 32-bit integer. */
 function parity(x: number): number {
@@ -97,7 +83,7 @@ export function pauliExpectationFromMasks(
 /** Expectation Re Tr(P ρ) (or ⟨ψ|P|ψ⟩) of the Pauli string P, character q acting on qubit q; throws RangeError on an invalid string. */
 export function pauliExpectation(state: DensityMatrix | StateVector, pauli: string): number {
   const n = state.n;
-  const err = validatePauliString(pauli, n);
+  const err = pauliStringProblem(pauli, n);
   if (err !== undefined) throw new RangeError(err);
   let xmask = 0;
   let zmask = 0;

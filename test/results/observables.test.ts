@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import * as math from 'mathjs';
-import { blochVectors, pauliExpectation, validatePauliString } from '../../src/results/observables.js';
+import { blochVectors, pauliExpectation } from '../../src/results/observables.js';
 import { diagonalDensity, mulberry32, projector, randomDensity, randomState, re, stateFrom, toMath } from './helpers.js';
 
 /** The Pauli matrices I, X, Y, Z (Nielsen & Chuang §2.1.3, from memory) as mathjs matrices. */
@@ -86,15 +86,6 @@ describe('pauliExpectation', () => {
   });
 });
 
-describe('validatePauliString', () => {
-  it('accepts I X Y Z uppercase of length n and explains anything else', () => {
-    expect(validatePauliString('IXYZ', 4)).toBeUndefined();
-    expect(validatePauliString('XX', 3)).toMatch(/2 letters.*3/);
-    expect(validatePauliString('XxZ', 3)).toMatch(/'x' for qubit 1.*uppercase/);
-    expect(validatePauliString('XAZ', 3)).toMatch(/'A'/);
-    expect(validatePauliString('', 0)).toBeUndefined();
-  });
-});
 
 describe('blochVectors', () => {
   const s = Math.SQRT1_2;
