@@ -6,6 +6,36 @@
 import type { CMatrix } from '../linalg/cmatrix.js';
 
 /**
+ * Bit maps between a k-qubit group index and the m-bit index of the qubits at `positions`
+ * (positions[0] most significant): deposit[x] puts the bits of x at `positions` (zero
+ * elsewhere), extract[g] reads them back out of a group index g; mask marks those bits.
+ */
+interface PositionMaps {
+  readonly mask: number;
+  readonly deposit: Int32Array;
+  readonly extract: Int32Array;
+}
+
+function positionMaps(positions: readonly number[], k: number): PositionMaps {
+  const m = positions.length;
+  let mask = 0;
+  for (const p of positions) mask |= 1 << (k - 1 - p);
+  const deposit = new Int32Array(1 << m);
+  for (let x = 0; x < 1 << m; x++) {
+    let g = 0;
+    for (let j = 0; j < m; j++) if ((x >> (m - 1 - j)) & 1) g |= 1 << (k - 1 - positions[j]!);
+    deposit[x] = g;
+  }
+  const extract = new Int32Array(1 << k);
+  for (let g = 0; g < 1 << k; g++) {
+    let x = 0;
+    for (let j = 0; j < m; j++) x = (x << 1) | ((g >> (k - 1 - positions[j]!)) & 1);
+    extract[g] = x;
+  }
+  return { mask, deposit, extract };
+}
+
+/**
  * The superoperator on a k-qubit group that acts as `s` on the group positions `positions`
  * (positions[0] = the most significant factor of s) and as the identity on the others:
  * S_G[(a + b·d), (a' + b'·d)] = s[(a_s + b_s·d_s), (a'_s + b'_s·d_s)] when a, a' agree outside
@@ -24,27 +54,14 @@ export function embedSuperoperator(s: CMatrix, positions: readonly number[], k: 
     if (positions[j] !== j) identityOrder = false;
   }
   if (identityOrder) return s;
-  // deposit[x] = the group index with the bits of x (m bits) at `positions`, zero elsewhere
-  const deposit = new Int32Array(ds);
-  let mask = 0;
-  for (let x = 0; x < ds; x++) {
-    let g = 0;
-    for (let j = 0; j < m; j++) if ((x >> (m - 1 - j)) & 1) g |= 1 << (k - 1 - positions[j]!);
-    deposit[x] = g;
-  }
-  for (let j = 0; j < m; j++) mask |= 1 << (k - 1 - positions[j]!);
-  const extract = (g: number): number => {
-    let x = 0;
-    for (let j = 0; j < m; j++) x = (x << 1) | ((g >> (k - 1 - positions[j]!)) & 1);
-    return x;
-  };
+  const { mask, deposit, extract } = positionMaps(positions, k);
   const out = new Float64Array(2 * d2 * d2);
   const S = s.data;
   for (let a = 0; a < d; a++) {
-    const as = extract(a);
+    const as = extract[a]!;
     const aRest = a & ~mask;
     for (let b = 0; b < d; b++) {
-      const bs = extract(b);
+      const bs = extract[b]!;
       const bRest = b & ~mask;
       const row = a + b * d;
       const srow = as + bs * ds;
@@ -75,27 +92,15 @@ export function composeEmbedded(s: CMatrix, positions: readonly number[], k: num
   const d2 = d * d;
   if (s.rows !== ds2 || s.cols !== ds2) throw new RangeError(`composeEmbedded: superoperator is ${s.rows}×${s.cols}, expected ${ds2}×${ds2}`);
   if (g.rows !== d2 || g.cols !== d2) throw new RangeError(`composeEmbedded: group superoperator is ${g.rows}×${g.cols}, expected ${d2}×${d2}`);
-  let mask = 0;
-  for (const p of positions) mask |= 1 << (k - 1 - p);
-  const deposit = new Int32Array(ds);
-  for (let x = 0; x < ds; x++) {
-    let v = 0;
-    for (let j = 0; j < m; j++) if ((x >> (m - 1 - j)) & 1) v |= 1 << (k - 1 - positions[j]!);
-    deposit[x] = v;
-  }
-  const extract = (v: number): number => {
-    let x = 0;
-    for (let j = 0; j < m; j++) x = (x << 1) | ((v >> (k - 1 - positions[j]!)) & 1);
-    return x;
-  };
+  const { mask, deposit, extract } = positionMaps(positions, k);
   const S = s.data;
   const G = g.data;
   const out = new Float64Array(2 * d2 * d2);
   for (let a = 0; a < d; a++) {
-    const as = extract(a);
+    const as = extract[a]!;
     const aRest = a & ~mask;
     for (let b = 0; b < d; b++) {
-      const srow = as + extract(b) * ds;
+      const srow = as + extract[b]! * ds;
       const bRest = b & ~mask;
       const o = 2 * (a + b * d) * d2;
       for (let a2 = 0; a2 < ds; a2++) {
@@ -130,28 +135,16 @@ export function composeEmbeddedBefore(g: CMatrix, s: CMatrix, positions: readonl
   const d2 = d * d;
   if (s.rows !== ds2 || s.cols !== ds2) throw new RangeError(`composeEmbeddedBefore: superoperator is ${s.rows}×${s.cols}, expected ${ds2}×${ds2}`);
   if (g.rows !== d2 || g.cols !== d2) throw new RangeError(`composeEmbeddedBefore: group superoperator is ${g.rows}×${g.cols}, expected ${d2}×${d2}`);
-  let mask = 0;
-  for (const p of positions) mask |= 1 << (k - 1 - p);
-  const deposit = new Int32Array(ds);
-  for (let x = 0; x < ds; x++) {
-    let v = 0;
-    for (let j = 0; j < m; j++) if ((x >> (m - 1 - j)) & 1) v |= 1 << (k - 1 - positions[j]!);
-    deposit[x] = v;
-  }
-  const extract = (v: number): number => {
-    let x = 0;
-    for (let j = 0; j < m; j++) x = (x << 1) | ((v >> (k - 1 - positions[j]!)) & 1);
-    return x;
-  };
+  const { mask, deposit, extract } = positionMaps(positions, k);
   const S = s.data;
   const G = g.data;
   const out = new Float64Array(2 * d2 * d2);
   // (g · E)[row, col] = Σ_x g[row, x] · E[x, col], E[x, col] = s[(x_s), (col_s)] when x, col agree outside `positions`
   for (let a = 0; a < d; a++) {
-    const as = extract(a);
+    const as = extract[a]!;
     const aRest = a & ~mask;
     for (let b = 0; b < d; b++) {
-      const scol = as + extract(b) * ds;
+      const scol = as + extract[b]! * ds;
       const bRest = b & ~mask;
       const col = 2 * (a + b * d);
       for (let a2 = 0; a2 < ds; a2++) {
