@@ -5,22 +5,13 @@
  * with mathjs straight from the definitions in src/channels/conventions.ts.
  */
 import { describe, expect, it } from 'vitest';
-import { add as madd, complex, conj as mconj, kron as mkron, matrix, multiply, trace as mtrace, zeros as mzeros, ctranspose, type Matrix, type Complex as MComplex } from 'mathjs';
+import { add as madd, conj as mconj, kron as mkron, multiply, trace as mtrace, zeros as mzeros, ctranspose, type Matrix, type Complex as MComplex } from 'mathjs';
 import type { CMatrix } from '../../src/linalg/cmatrix.js';
 import { Channel } from '../../src/channels/channel.js';
 import { CHANNEL_FORMS } from '../../src/channels/conventions.js';
 import { pauliLabels, pauliMatrix } from '../../src/noise/channels.js';
 import { maxDiff, mulberry32, randomKraus, randomUnitary, ROUND_TRIP } from './helpers.js';
-
-function toMath(m: CMatrix): Matrix {
-  const rows: MComplex[][] = [];
-  for (let i = 0; i < m.rows; i++) {
-    const row: MComplex[] = [];
-    for (let j = 0; j < m.cols; j++) row.push(complex(m.data[2 * (i * m.cols + j)]!, m.data[2 * (i * m.cols + j) + 1]!));
-    rows.push(row);
-  }
-  return matrix(rows);
-}
+import { toMath } from '../helpers/mathjs.js';
 
 function diffToMath(a: CMatrix, m: Matrix): number {
   const [r, c] = m.size();

@@ -6,17 +6,7 @@ import * as math from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { simulate } from '../../src/api/simulate.js';
 import { thermalRelaxation } from '../../src/noise/channels.js';
-import type { CMatrix } from '../../src/linalg/cmatrix.js';
-
-function toMath(m: CMatrix): math.Matrix {
-  const rows: math.Complex[][] = [];
-  for (let i = 0; i < m.rows; i++) {
-    const row: math.Complex[] = [];
-    for (let j = 0; j < m.cols; j++) row.push(math.complex(m.data[2 * (i * m.cols + j)]!, m.data[2 * (i * m.cols + j) + 1]!));
-    rows.push(row);
-  }
-  return math.matrix(rows);
-}
+import { toMath } from '../helpers/mathjs.js';
 
 describe('circuits/channels/parity-check.yaml', () => {
   it('its state fidelity equals a dense mathjs computation of H_q1 · (E0 ⊗ E1)(CZ·H⊗H|00⟩) against the Bell state', () => {

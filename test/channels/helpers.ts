@@ -49,7 +49,7 @@ export function randomDensity(rng: () => number, d: number): CMatrix {
 
 /** Random pure state as a d × 1 column. */
 export function randomKet(rng: () => number, d: number): CMatrix {
-  return qrIsometry(randomGaussianMatrix(rng, d, 1));
+  return orthonormaliseColumns(randomGaussianMatrix(rng, d, 1));
 }
 
 /** Σ_k K_k ρ K_k†, straight from the definition. */

@@ -1,7 +1,6 @@
 /** Test helpers for test/circuit: a seeded PRNG and CMatrix ↔ mathjs conversions. */
-import * as math from 'mathjs';
 import { type CMatrix, fromRows } from '../../src/linalg/cmatrix.js';
-import { mulberry32 } from '../helpers/random.js';
+export { toMath, fromMath } from '../helpers/mathjs.js';
 export { mulberry32 } from '../helpers/random.js';
 
 /** Entrywise agreement demanded of exact constructions (double rounding only). */
@@ -24,19 +23,3 @@ export function randomCMatrix(d: number, rng: () => number): CMatrix {
   return fromRows(rows);
 }
 
-/** A CMatrix as a mathjs matrix of complex numbers. */
-export function toMath(m: CMatrix): math.Matrix {
-  const rows: math.Complex[][] = [];
-  for (let r = 0; r < m.rows; r++) {
-    const row: math.Complex[] = [];
-    for (let c = 0; c < m.cols; c++) row.push(math.complex(m.data[2 * (r * m.cols + c)]!, m.data[2 * (r * m.cols + c) + 1]!));
-    rows.push(row);
-  }
-  return math.matrix(rows);
-}
-
-/** A mathjs matrix (real or complex entries) as a CMatrix. */
-export function fromMath(m: math.Matrix): CMatrix {
-  const arr = m.toArray() as unknown as (number | math.Complex)[][];
-  return fromRows(arr.map((row) => row.map((v): [number, number] => (typeof v === 'number' ? [v, 0] : [v.re, v.im]))));
-}

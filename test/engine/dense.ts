@@ -5,20 +5,11 @@
 import { add, complex, ctranspose, index, kron, matrix, multiply, range, subset, type Complex, type Matrix } from 'mathjs';
 import type { CMatrix } from '../../src/linalg/cmatrix.js';
 import type { DensityMatrix, StateVector } from '../../src/engine/layout.js';
+import { toMath } from '../helpers/mathjs.js';
+export { toMath } from '../helpers/mathjs.js';
 
 /** Agreement required between the engine and the dense mathjs reference. */
 export const DENSE_AGREEMENT = 1e-12;
-
-/** A CMatrix as a mathjs matrix of complex numbers. */
-export function toMath(m: CMatrix): Matrix {
-  const rows: Complex[][] = [];
-  for (let i = 0; i < m.rows; i++) {
-    const row: Complex[] = [];
-    for (let j = 0; j < m.cols; j++) row.push(complex(m.data[2 * (i * m.cols + j)]!, m.data[2 * (i * m.cols + j) + 1]!));
-    rows.push(row);
-  }
-  return matrix(rows);
-}
 
 /** A register density matrix as a mathjs matrix. */
 export function rhoToMath(rho: DensityMatrix): Matrix {

@@ -5,7 +5,7 @@
  */
 import type { CMatrix } from '../../src/linalg/cmatrix.js';
 import type { DensityMatrix, StateVector } from '../../src/engine/layout.js';
-import { mulberry32, gaussian } from '../helpers/random.js';
+import { gaussian } from '../helpers/random.js';
 export { mulberry32, gaussian } from '../helpers/random.js';
 
 

@@ -53,20 +53,6 @@ function expectVec(a: readonly number[], b: readonly number[], tol = PHYS_TOL): 
   for (let i = 0; i < 3; i++) expect(Math.abs(a[i]! - b[i]!)).toBeLessThan(tol);
 }
 
-/** Independent mathjs version of a complex CMatrix. */
-function toMath(m: CMatrix): math.Matrix {
-  const rows: math.Complex[][] = [];
-  for (let i = 0; i < m.rows; i++) {
-    const row: math.Complex[] = [];
-    for (let j = 0; j < m.cols; j++) {
-      const [re, im] = entry(m, i, j);
-      row.push(math.complex(re, im));
-    }
-    rows.push(row);
-  }
-  return math.matrix(rows);
-}
-
 function mathDiff(a: CMatrix, b: math.Matrix): number {
   const arr = b.toArray() as unknown as (math.Complex | number)[][];
   let worst = 0;

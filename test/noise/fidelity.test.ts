@@ -21,19 +21,7 @@ import {
   randomUnitary,
   stabilizerStates,
 } from './helpers.js';
-
-function toMath(m: CMatrix): math.Matrix {
-  const rows: math.Complex[][] = [];
-  for (let i = 0; i < m.rows; i++) {
-    const row: math.Complex[] = [];
-    for (let j = 0; j < m.cols; j++) {
-      const [re, im] = entry(m, i, j);
-      row.push(math.complex(re, im));
-    }
-    rows.push(row);
-  }
-  return math.matrix(rows);
-}
+import { toMath } from '../helpers/mathjs.js';
 
 function re(x: unknown): number {
   return typeof x === 'number' ? x : (x as math.Complex).re;

@@ -16,7 +16,7 @@ import {
   trace,
   zeros,
 } from '../../src/linalg/cmatrix.js';
-import { mulberry32, gaussian } from '../helpers/random.js';
+import { gaussian } from '../helpers/random.js';
 export { mulberry32, gaussian } from '../helpers/random.js';
 
 /** Trace-preservation tolerance of the contract (krausResidual). */

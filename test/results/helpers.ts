@@ -5,7 +5,6 @@
 import * as math from 'mathjs';
 import { adjoint, mul, type CMatrix } from '../../src/linalg/cmatrix.js';
 import type { DensityMatrix, StateVector } from '../../src/engine/layout.js';
-import { mulberry32 } from '../helpers/random.js';
 export { mulberry32 } from '../helpers/random.js';
 
 
