@@ -57,9 +57,9 @@ function buildProgram(io: CliIO): Command {
   program
     .name('fray')
     .description(
-      'Exact density-matrix simulation of short, noisy quantum circuits.\n' +
-        'Reads a circuit and a device noise profile in YAML, schedules the circuit in time so\n' +
-        'idle qubits decay, and reports how far the noisy run lands from the ideal one.',
+      'Exact density-matrix simulation of short, noisy quantum circuits. Reads a circuit and a ' +
+        'device noise profile in YAML, schedules the circuit in time so idle qubits decay, and ' +
+        'reports how far the noisy run lands from the ideal one.',
     )
     .version(VERSION, '-V, --version', 'print the version')
     .helpOption('-h, --help', 'show help')
