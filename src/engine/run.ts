@@ -3,11 +3,12 @@
  * run on a density matrix, and the ideal run on a state vector for as long as it stays pure.
  */
 import { createDensityMatrix } from './densityMatrix.js';
+import { orthogonalBranches } from './ensemble.js';
 import type { Instruction } from './instruction.js';
 import { referenceKernels, type Kernels } from './kernels.js';
 import type { DensityMatrix, StateVector } from './layout.js';
 import { krausToSuperoperator } from '../linalg/superoperator.js';
-import { applyUnitaryToState, createStateVector, resetStateVector, stateToDensityMatrix } from './stateVector.js';
+import { applyUnitaryToState, createStateVector, resetStateVector, splitReset } from './stateVector.js';
 
 /**
  * A channel with r Kraus operators on k qubits (d = 2^k) is applied through its superoperator
@@ -16,8 +17,26 @@ import { applyUnitaryToState, createStateVector, resetStateVector, stateToDensit
  */
 export const SUPEROPERATOR_BREAK_EVEN = 0.5;
 
-/** The final ideal state: a state vector while the run stayed pure, else a density matrix. */
-export type IdealState = { kind: 'pure'; state: StateVector } | { kind: 'mixed'; rho: DensityMatrix };
+/**
+ * The final ideal state: a state vector while the run stayed pure; after resets that made it
+ * mixed, an ensemble of unnormalised pure branches (σ = Σ_i |ψ_i⟩⟨ψ_i|, Σ_i ‖ψ_i‖² = 1), or a
+ * density matrix once there are more than MAX_IDEAL_BRANCHES branches.
+ */
+export type IdealState =
+  | { kind: 'pure'; state: StateVector }
+  | { kind: 'ensemble'; states: StateVector[] }
+  | { kind: 'mixed'; rho: DensityMatrix };
+
+/**
+ * Most pure branches the ideal run keeps. Branches keep exact zeros exact (a density matrix
+ * accumulates rounding of ≈1e-16 on its diagonal, which square-root figures such as the
+ * classical fidelity magnify to ≈1e-8) and cost 2^n instead of 4^n each.
+ */
+export const MAX_IDEAL_BRANCHES = 64;
+
+/** Branches whose squared norm is below this carry no weight and are dropped. */
+export const NEGLIGIBLE_BRANCH_WEIGHT = 1e-30;
+
 
 /** Final density matrix of `program` (unitaries, Kraus channels, resets in order) applied to |0…0⟩⟨0…0|. */
 export function runNoisy(n: number, program: readonly Instruction[], kernels: Kernels = referenceKernels): DensityMatrix {
@@ -48,26 +67,70 @@ export function runNoisy(n: number, program: readonly Instruction[], kernels: Ke
 
 /**
  * Final state of the ideal `program` (only 'unitary' and 'reset'; a 'channel' throws) applied
- * to |0…0⟩: on a state vector while pure, switching to a density matrix (via |ψ⟩⟨ψ|) the first
- * time a reset makes the state mixed; `kernels` serve the mixed part.
+ * to |0…0⟩. A reset that keeps the state pure acts in place (resetStateVector); one that makes
+ * it mixed splits the branch in two (splitReset), and the branches are then made orthogonal
+ * (at most rank σ of them). Past `maxBranches` (MAX_IDEAL_BRANCHES) branches the run
+ * continues on the density matrix Σ_i |ψ_i⟩⟨ψ_i| with `kernels`.
  */
-export function runIdeal(n: number, program: readonly Instruction[], kernels: Kernels = referenceKernels): IdealState {
+export function runIdeal(
+  n: number,
+  program: readonly Instruction[],
+  kernels: Kernels = referenceKernels,
+  maxBranches: number = MAX_IDEAL_BRANCHES,
+): IdealState {
   for (const ins of program) {
     if (ins.op === 'channel') throw new TypeError("runIdeal: the ideal program may not contain a 'channel' instruction");
   }
-  const psi = createStateVector(n);
+  let branches: StateVector[] = [createStateVector(n)];
   let rho: DensityMatrix | undefined;
   for (const ins of program) {
     if (ins.op === 'unitary') {
       if (rho) kernels.applyUnitary(rho, ins.qubits, ins.matrix);
-      else applyUnitaryToState(psi, ins.qubits, ins.matrix);
+      else for (const b of branches) applyUnitaryToState(b, ins.qubits, ins.matrix);
     } else if (ins.op === 'reset') {
-      if (rho) kernels.reset(rho, ins.qubit);
-      else if (!resetStateVector(psi, ins.qubit)) {
-        rho = stateToDensityMatrix(psi);
+      if (rho) {
         kernels.reset(rho, ins.qubit);
+        continue;
+      }
+      const next: StateVector[] = [];
+      for (const b of branches) {
+        if (resetStateVector(b, ins.qubit)) next.push(b);
+        else for (const part of splitReset(b, ins.qubit)) if (squaredNorm(part) > NEGLIGIBLE_BRANCH_WEIGHT) next.push(part);
+      }
+      const compact = next.length > 1 ? orthogonalBranches(next) : next;
+      if (compact.length > maxBranches) rho = ensembleToDensityMatrix(compact);
+      else branches = compact;
+    }
+  }
+  if (rho) return { kind: 'mixed', rho };
+  return branches.length === 1 ? { kind: 'pure', state: branches[0]! } : { kind: 'ensemble', states: branches };
+}
+
+function squaredNorm(psi: StateVector): number {
+  let s = 0;
+  for (let i = 0; i < psi.data.length; i++) s += psi.data[i]! * psi.data[i]!;
+  return s;
+}
+
+/** Σ_i |ψ_i⟩⟨ψ_i| of unnormalised branches, in the layout of ./layout.ts. */
+export function ensembleToDensityMatrix(states: readonly StateVector[]): DensityMatrix {
+  const rho = createDensityMatrix(states[0]!.n);
+  rho.data.fill(0);
+  const D = rho.dim;
+  const R = rho.data;
+  for (const psi of states) {
+    const P = psi.data;
+    for (let i = 0; i < D; i++) {
+      const ar = P[2 * i]!;
+      const ai = P[2 * i + 1]!;
+      if (ar === 0 && ai === 0) continue;
+      for (let j = 0; j < D; j++) {
+        const br = P[2 * j]!;
+        const bi = -P[2 * j + 1]!;
+        R[2 * (i * D + j)] += ar * br - ai * bi;
+        R[2 * (i * D + j) + 1] += ar * bi + ai * br;
       }
     }
   }
-  return rho ? { kind: 'mixed', rho } : { kind: 'pure', state: psi };
+  return rho;
 }

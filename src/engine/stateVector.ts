@@ -158,3 +158,28 @@ export function stateToDensityMatrix(psi: StateVector): DensityMatrix {
   }
   return { n: psi.n, dim: D, data };
 }
+
+/**
+ * The two branches of a reset of qubit q that keeps purity per branch: with
+ * ψ = |0⟩_q ⊗ ψ0 + |1⟩_q ⊗ ψ1, the reset state |0⟩⟨0|_q ⊗ (|ψ0⟩⟨ψ0| + |ψ1⟩⟨ψ1|) is the sum of
+ * the projectors on |0⟩_q ⊗ ψ0 and |0⟩_q ⊗ ψ1, returned as new unnormalised state vectors.
+ */
+export function splitReset(psi: StateVector, q: number): [StateVector, StateVector] {
+  const n = psi.n;
+  const D = psi.dim;
+  checkTargets(n, [q], 'splitReset');
+  const m = qubitMask(n, q);
+  const P = psi.data;
+  const b0 = new Float64Array(2 * D);
+  const b1 = new Float64Array(2 * D);
+  for (let r = 0; r < D; r = nextRest(r, m)) {
+    b0[2 * r] = P[2 * r]!;
+    b0[2 * r + 1] = P[2 * r + 1]!;
+    b1[2 * r] = P[2 * (r | m)]!;
+    b1[2 * r + 1] = P[2 * (r | m) + 1]!;
+  }
+  return [
+    { n, dim: D, data: b0 },
+    { n, dim: D, data: b1 },
+  ];
+}

@@ -8,8 +8,10 @@
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import type { DensityMatrix, StateVector } from '../engine/layout.js';
 import { isDensityMatrix } from './stateKind.js';
-import { hermitianEmbedding } from '../linalg/hermitianEigen.js';
+import { hermitianEigenvalues, hermitianEmbedding } from '../linalg/hermitianEigen.js';
+import { zeros } from '../linalg/cmatrix.js';
 import type { IdealState } from '../engine/run.js';
+import { orthogonalBranches } from '../engine/ensemble.js';
 
 /** Eigenvalues of a density-matrix-like operator down to −this are rounding and clipped to 0; below it the input is rejected as not positive semidefinite. */
 export const NEGATIVE_EIGENVALUE_TOLERANCE = 1e-9;
@@ -22,11 +24,71 @@ export const SUPPORT_EIGENVALUE_TOLERANCE = 1e-12;
 
 export type { IdealState };
 
+/** Eigenvalues of Ψ†ρΨ at or below this are rounding of exact zeros (entries are O(1), rounding ≈1e-16). */
+export const ROUNDING_EIGENVALUE = 1e-15;
+
 /** Uhlmann–Jozsa fidelity F(ρ, σ) = (Tr √(√σ ρ √σ))² (squared convention) of the noisy ρ with the ideal σ. */
 export function stateFidelity(rho: DensityMatrix, ideal: IdealState): number {
   if (!isDensityMatrix(rho)) throw new RangeError('stateFidelity: the noisy state must be a density matrix');
   if (ideal.kind === 'pure') return pureFidelity(rho, ideal.state);
+  if (ideal.kind === 'ensemble') return ensembleFidelity(rho, ideal.states);
   return mixedFidelity(rho, ideal.rho);
+}
+
+/**
+ * F(ρ, σ) for σ = Σ_i |ψ_i⟩⟨ψ_i| = ΨΨ† given by r unnormalised branches: √σ ρ √σ has the same
+ * nonzero eigenvalues as ρ^½ ΨΨ† ρ^½ (XX† and X†X with X = ρ^½ σ^½ share them) and hence as the
+ * r × r matrix M = Ψ†ρΨ, M_ij = ⟨ψ_i|ρ|ψ_j⟩ (AB and BA share nonzero eigenvalues). So
+ * F = (Σ_k √μ_k)² over the eigenvalues μ of M — O(r·D²), no 2^n × 2^n eigenproblem.
+ */
+function ensembleFidelity(rho: DensityMatrix, given: readonly StateVector[]): number {
+  // Orthogonal branches first: linearly dependent ones would put exact zeros among the
+  // eigenvalues of M, which rounding turns into ≈1e-17 and the square roots into ≈1e-9.
+  const states = orthogonalBranches(given);
+  const r = states.length;
+  const d = rho.dim;
+  const R = rho.data;
+  const m = zeros(r, r);
+  const w = new Float64Array(2 * d);
+  for (let j = 0; j < r; j++) {
+    const v = states[j]!.data;
+    // w = ρ ψ_j
+    for (let a = 0; a < d; a++) {
+      let wr = 0;
+      let wi = 0;
+      const row = 2 * a * d;
+      for (let b = 0; b < d; b++) {
+        const ar = R[row + 2 * b]!;
+        const ai = R[row + 2 * b + 1]!;
+        const br = v[2 * b]!;
+        const bi = v[2 * b + 1]!;
+        wr += ar * br - ai * bi;
+        wi += ar * bi + ai * br;
+      }
+      w[2 * a] = wr;
+      w[2 * a + 1] = wi;
+    }
+    for (let i = 0; i < r; i++) {
+      const u = states[i]!.data;
+      let sr = 0;
+      let si = 0;
+      for (let a = 0; a < d; a++) {
+        // conj(ψ_i[a]) · w[a]
+        sr += u[2 * a]! * w[2 * a]! + u[2 * a + 1]! * w[2 * a + 1]!;
+        si += u[2 * a]! * w[2 * a + 1]! - u[2 * a + 1]! * w[2 * a]!;
+      }
+      m.data[2 * (i * r + j)] = sr;
+      m.data[2 * (i * r + j) + 1] = si;
+    }
+  }
+  let traceSqrt = 0;
+  for (const mu of hermitianEigenvalues(m)) {
+    if (mu < -NEGATIVE_EIGENVALUE_TOLERANCE) throw new RangeError(`stateFidelity: Ψ†ρΨ has eigenvalue ${mu}`);
+    // A rank-deficient ρ leaves exact zeros among the μ; rounding makes them ≈1e-19, whose
+    // square roots (≈1e-9) would otherwise add up.
+    if (mu > ROUNDING_EIGENVALUE) traceSqrt += Math.sqrt(mu);
+  }
+  return traceSqrt * traceSqrt;
 }
 
 /** ⟨ψ|ρ|ψ⟩ (real part): the fidelity of ρ with the pure state |ψ⟩⟨ψ|; O(D²). */

@@ -3,6 +3,7 @@ import { classicalFidelity, purity, stateFidelity, totalVariationDistance, type 
 import { blochVectors, pauliExpectation } from './observables.js';
 import { applyReadout, diagonalOf, marginal, type ReadoutConfusion } from './probabilities.js';
 import { sampleCounts } from './sampling.js';
+import { idealBlochVectors, idealDiagonal, idealExpectation } from './idealFigures.js';
 import { bitstring } from '../engine/layout.js';
 
 /** Outcomes whose probability exceeds this in any of ideal / noisy / measured are listed (the contract's 1e-15). */
@@ -45,8 +46,7 @@ export interface Figures {
 export function computeFigures(rho: DensityMatrix, ideal: IdealState, input: ReportInput): Figures {
   const { n, measured } = input;
   const m = measured.length;
-  const idealState = ideal.kind === 'pure' ? ideal.state : ideal.rho;
-  const pIdeal = marginal(diagonalOf(idealState), n, measured);
+  const pIdeal = marginal(idealDiagonal(ideal), n, measured);
   const pNoisy = marginal(diagonalOf(rho), n, measured);
   const pMeasured = applyReadout(pNoisy, input.readout);
   const ideals: Record<string, number> = {};
@@ -68,13 +68,13 @@ export function computeFigures(rho: DensityMatrix, ideal: IdealState, input: Rep
     fidelity: { state: stateFidelity(rho, ideal), classical: classicalFidelity(pIdeal, pMeasured) },
     tvd: totalVariationDistance(pIdeal, pMeasured),
     purity: purity(rho),
-    bloch: { ideal: blochVectors(idealState), noisy: blochVectors(rho) },
+    bloch: { ideal: idealBlochVectors(ideal), noisy: blochVectors(rho) },
   };
   const extra: { observables?: Figures['observables']; counts?: Figures['counts'] } = {};
   if (input.observe.length > 0) {
     extra.observables = {};
     for (const p of input.observe) {
-      extra.observables[p] = { ideal: pauliExpectation(idealState, p), noisy: pauliExpectation(rho, p) };
+      extra.observables[p] = { ideal: idealExpectation(ideal, p), noisy: pauliExpectation(rho, p) };
     }
   }
   if (input.shots !== undefined) {

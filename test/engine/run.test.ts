@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import type { Matrix } from 'mathjs';
 import type { Instruction } from '../../src/engine/instruction.js';
 import { referenceKernels, type Kernels } from '../../src/engine/kernels.js';
-import { runIdeal, runNoisy } from '../../src/engine/run.js';
+import { ensembleToDensityMatrix, runIdeal, runNoisy } from '../../src/engine/run.js';
 import { stateToDensityMatrix } from '../../src/engine/stateVector.js';
 import { fromRows, maxAbsDiff } from '../../src/linalg/cmatrix.js';
 import type { DensityMatrix } from '../../src/engine/layout.js';
@@ -107,7 +107,7 @@ describe('runIdeal', () => {
     expect(rhoMaxDiff(stateToDensityMatrix(ideal.state), runNoisy(2, program))).toBeLessThan(DENSE_AGREEMENT);
   });
 
-  it('switches to a density matrix when a reset hits half of a Bell pair, and continues there', () => {
+  it('keeps pure branches when a reset hits half of a Bell pair, and continues on them', () => {
     // Resetting one half of (|00⟩ + |11⟩)/√2 leaves |0⟩⟨0| ⊗ I/2, a mixed state (Nielsen & Chuang §2.4.3, from memory).
     const rng = mulberry32(321);
     const program: Instruction[] = [
@@ -118,9 +118,12 @@ describe('runIdeal', () => {
       { op: 'reset', qubit: 1 },
     ];
     const ideal = runIdeal(3, program);
-    expect(ideal.kind).toBe('mixed');
-    if (ideal.kind !== 'mixed') return;
-    expect(rhoMaxDiff(ideal.rho, runNoisy(3, program))).toBeLessThan(DENSE_AGREEMENT);
+    expect(ideal.kind).toBe('ensemble');
+    if (ideal.kind !== 'ensemble') return;
+    // σ = Σ_i |ψ_i⟩⟨ψ_i| equals the density-matrix run of the same program.
+    expect(rhoMaxDiff(ensembleToDensityMatrix(ideal.states), runNoisy(3, program))).toBeLessThan(DENSE_AGREEMENT);
+    // The branches are orthogonal (one per eigenvector of σ): at most rank σ of them.
+    expect(ideal.states.length).toBeLessThanOrEqual(2);
   });
 
   it('matches |0⟩⟨0| ⊗ I/2 for the reset Bell pair', () => {
@@ -129,14 +132,49 @@ describe('runIdeal', () => {
       { op: 'unitary', qubits: [0, 1], matrix: CNOT },
       { op: 'reset', qubit: 0 },
     ]);
-    expect(ideal.kind).toBe('mixed');
-    if (ideal.kind !== 'mixed') return;
+    expect(ideal.kind).toBe('ensemble');
+    if (ideal.kind !== 'ensemble') return;
+    const rho = ensembleToDensityMatrix(ideal.states);
     const expected = new Float64Array(32);
     expected[0] = 0.5;
     expected[2 * (1 * 4 + 1)] = 0.5;
-    expect(maxAbsDiff({ rows: 4, cols: 4, data: ideal.rho.data }, { rows: 4, cols: 4, data: expected })).toBeLessThan(
-      DENSE_AGREEMENT,
-    );
+    expect(maxAbsDiff({ rows: 4, cols: 4, data: rho.data }, { rows: 4, cols: 4, data: expected })).toBeLessThan(DENSE_AGREEMENT);
+  });
+
+  it('dependent branches collapse to the rank of σ: resetting every qubit of an entangled state leaves one pure branch', () => {
+    const rng = mulberry32(99);
+    const program: Instruction[] = [
+      { op: 'unitary', qubits: [0, 1, 2], matrix: randomUnitary(rng, 8) },
+      { op: 'reset', qubit: 0 },
+      { op: 'reset', qubit: 1 },
+      { op: 'reset', qubit: 2 },
+    ];
+    const ideal = runIdeal(3, program);
+    expect(ideal.kind).toBe('pure');
+    if (ideal.kind !== 'pure') return;
+    expect(rhoMaxDiff(stateToDensityMatrix(ideal.state), runNoisy(3, program))).toBeLessThan(DENSE_AGREEMENT);
+  });
+
+  it('goes on as a density matrix past the branch limit', () => {
+    // A scrambled 4-qubit state with qubits 0 and 1 reset has σ of rank 4 (the reduced state of
+    // qubits 2, 3): past a limit of 2 branches the run continues on the density matrix.
+    const rng = mulberry32(5);
+    const program: Instruction[] = [
+      { op: 'unitary', qubits: [0, 1, 2], matrix: randomUnitary(rng, 8) },
+      { op: 'unitary', qubits: [1, 2, 3], matrix: randomUnitary(rng, 8) },
+      { op: 'unitary', qubits: [0, 3], matrix: randomUnitary(rng, 4) },
+      { op: 'reset', qubit: 0 },
+      { op: 'reset', qubit: 1 },
+      { op: 'unitary', qubits: [1, 3], matrix: randomUnitary(rng, 4) },
+    ];
+    const capped = runIdeal(4, program, referenceKernels, 2);
+    expect(capped.kind).toBe('mixed');
+    const free = runIdeal(4, program);
+    expect(free.kind).toBe('ensemble');
+    if (capped.kind !== 'mixed' || free.kind !== 'ensemble') return;
+    expect(free.states.length).toBe(4);
+    expect(rhoMaxDiff(capped.rho, runNoisy(4, program))).toBeLessThan(DENSE_AGREEMENT);
+    expect(rhoMaxDiff(ensembleToDensityMatrix(free.states), capped.rho)).toBeLessThan(DENSE_AGREEMENT);
   });
 
   it("throws on a 'channel' instruction", () => {

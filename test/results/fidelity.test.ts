@@ -7,6 +7,7 @@ import {
   totalVariationDistance,
 } from '../../src/results/fidelity.js';
 import type { DensityMatrix } from '../../src/engine/layout.js';
+import { ensembleToDensityMatrix } from '../../src/engine/run.js';
 import { fromRows, kron, mul, adjoint, type CMatrix } from '../../src/linalg/cmatrix.js';
 import {
   diagonalDensity,
@@ -23,6 +24,30 @@ const TOL = 1e-9;
 const mixed = (rho: DensityMatrix) => ({ kind: 'mixed' as const, rho });
 
 describe('stateFidelity', () => {
+  it('an ensemble of unnormalised branches gives the same F as its density matrix Σ|ψ_i⟩⟨ψ_i|', () => {
+    // Same definition (Jozsa 1994) through two routes: the r × r matrix Ψ†ρΨ, and the eigen-
+    // decomposition of the full σ. Branches may be non-orthogonal and even linearly dependent.
+    const rand = mulberry32(17);
+    for (let n = 1; n <= 3; n++) {
+      for (const r of [2, 3, 5]) {
+        const rho = randomDensity(n, rand, t(n, r));
+        const weights = Array.from({ length: r }, () => rand() + 0.1);
+        const total = weights.reduce((a, b) => a + b, 0);
+        const states = weights.map((w) => {
+          const psi = randomState(n, rand);
+          for (let i = 0; i < psi.data.length; i++) psi.data[i]! *= Math.sqrt(w / total);
+          return psi;
+        });
+        const fe = stateFidelity(rho, { kind: 'ensemble', states });
+        const fm = stateFidelity(rho, mixed(ensembleToDensityMatrix(states)));
+        expect(Math.abs(fe - fm)).toBeLessThan(TOL);
+      }
+    }
+    function t(n: number, r: number): number {
+      return r % 2 === 0 ? 1 << n : 1;
+    }
+  });
+
   it('pure and mixed paths agree when σ = |ψ⟩⟨ψ| (both are the Jozsa 1994 definition)', () => {
     const rand = mulberry32(11);
     for (let n = 1; n <= 3; n++) {
