@@ -3,7 +3,7 @@ import { fastKernels } from '../engine/fastKernels.js';
 import { referenceKernels, type Kernels } from '../engine/kernels.js';
 import type { DensityMatrix } from '../engine/layout.js';
 import { checkMemory, defaultMemoryLimit, MemoryLimitError } from '../engine/memory.js';
-import { runIdeal, runNoisy } from '../engine/run.js';
+import { MAX_IDEAL_BRANCHES, runIdeal, runNoisy } from '../engine/run.js';
 import { runCompiled, THREADS_MIN_QUBITS } from '../engine/runCompiled.js';
 import { defaultThreads, sharedThreadPool } from '../engine/threadPool.js';
 import { WARM_MIN_QUBITS, warmKernels } from '../engine/warmKernels.js';
@@ -114,6 +114,16 @@ export interface PlannedRun {
   readonly problems: ProblemList;
 }
 
+/**
+ * Whether the ideal run can stay on state vectors: each reset at most doubles the rank of σ,
+ * which is also at most 2^n, and runIdeal keeps up to MAX_IDEAL_BRANCHES vectors (a few MiB,
+ * inside the estimate's overhead) before it needs a density matrix.
+ */
+function idealStaysOnVectors(program: Program): boolean {
+  const resets = program.ideal.filter((ins) => ins.op === 'reset').length;
+  return Math.min(resets, program.n) <= Math.log2(MAX_IDEAL_BRANCHES);
+}
+
 /** True when the options select the reference engine (engine 'reference' or explicit kernels). */
 function usesReference(options: SimulateOptions): boolean {
   return options.engine === 'reference' || options.kernels !== undefined;
@@ -161,7 +171,7 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
   if (fast && n >= WARM_MIN_QUBITS) warmKernels();
   const { schedule, program, problems } = prepare(loaded, options);
   try {
-    checkMemory(n, !program.idealHasReset, options.maxMemoryBytes ?? defaultMemoryLimit());
+    checkMemory(n, idealStaysOnVectors(program), options.maxMemoryBytes ?? defaultMemoryLimit());
   } catch (e) {
     if (e instanceof MemoryLimitError) {
       problems.error(circuit.qubitsAt, 'memory-limit', e.message);

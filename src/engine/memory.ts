@@ -4,8 +4,8 @@
  * Formula (bytes), with densityMatrixBytes(n) = 16·4^n and stateVectorBytes(n) = 16·2^n
  * from ./layout.ts:
  *   estimateRunBytes(n, idealPure) = densityMatrixBytes(n)                     (noisy run)
- *                                  + (idealPure ? stateVectorBytes(n)           (ideal run, pure)
- *                                               : densityMatrixBytes(n))        (ideal run, mixed)
+ *                                  + (idealPure ? stateVectorBytes(n)           (ideal run on state vectors)
+ *                                               : densityMatrixBytes(n))        (ideal run on a density matrix)
  *                                  + RUN_OVERHEAD_BYTES                          (constant)
  */
 import { totalmem } from 'node:os';

@@ -24,8 +24,6 @@ export interface Program {
   /** origins[i] explains noisy[i]. */
   readonly origins: readonly Origin[];
   readonly ideal: readonly Instruction[];
-  /** True when the ideal run has no reset (it then stays a pure state vector). */
-  readonly idealHasReset: boolean;
 }
 
 /**
@@ -89,7 +87,6 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
   const kindsOf = (override: NoiseOverride | undefined, fallback: NoiseKindsSpec): NoiseKindsSpec =>
     override !== undefined ? override.kinds : fallback;
 
-  let idealHasReset = false;
   for (const item of schedule.items) {
     for (const w of item.idleBefore) emitIdle(w);
     const op = item.op;
@@ -109,7 +106,6 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
         noisy.push({ op: 'reset', qubit: q });
         origins.push({ step: op.step, what: 'reset' });
         ideal.push({ op: 'reset', qubit: q });
-        idealHasReset = true;
         emitNoise(op, `${stepName} (reset ${q})`, 1, op.qubits, 0, false, kindsOf(op.noise, profile.reset.kinds));
         break;
       }
@@ -123,5 +119,5 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
     }
   }
   for (const w of schedule.trailingIdle) emitIdle(w);
-  return { n, noisy, origins, ideal, idealHasReset };
+  return { n, noisy, origins, ideal };
 }
