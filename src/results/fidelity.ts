@@ -47,27 +47,10 @@ function ensembleFidelity(rho: DensityMatrix, given: readonly StateVector[]): nu
   const states = orthogonalBranches(given);
   const r = states.length;
   const d = rho.dim;
-  const R = rho.data;
   const m = zeros(r, r);
   const w = new Float64Array(2 * d);
   for (let j = 0; j < r; j++) {
-    const v = states[j]!.data;
-    // w = ρ ψ_j
-    for (let a = 0; a < d; a++) {
-      let wr = 0;
-      let wi = 0;
-      const row = 2 * a * d;
-      for (let b = 0; b < d; b++) {
-        const ar = R[row + 2 * b]!;
-        const ai = R[row + 2 * b + 1]!;
-        const br = v[2 * b]!;
-        const bi = v[2 * b + 1]!;
-        wr += ar * br - ai * bi;
-        wi += ar * bi + ai * br;
-      }
-      w[2 * a] = wr;
-      w[2 * a + 1] = wi;
-    }
+    applyDensityMatrix(rho, states[j]!.data, w); // w = ρ ψ_j
     for (let i = 0; i < r; i++) {
       const u = states[i]!.data;
       let sr = 0;
@@ -95,26 +78,33 @@ function ensembleFidelity(rho: DensityMatrix, given: readonly StateVector[]): nu
 function pureFidelity(rho: DensityMatrix, psi: StateVector): number {
   if (isDensityMatrix(psi) && psi.dim !== 1) throw new RangeError('stateFidelity: a pure ideal state must be a state vector');
   if (psi.n !== rho.n) throw new RangeError(`stateFidelity: ${rho.n}-qubit state against ${psi.n}-qubit ideal`);
-  const d = rho.dim;
-  const r = rho.data;
   const v = psi.data;
+  const w = new Float64Array(2 * rho.dim);
+  applyDensityMatrix(rho, v, w);
   let acc = 0;
-  for (let i = 0; i < d; i++) {
-    // w = (ρψ)_i, then acc += Re(conj(ψ_i) w).
+  for (let i = 0; i < rho.dim; i++) acc += v[2 * i]! * w[2 * i]! + v[2 * i + 1]! * w[2 * i + 1]!;
+  return acc;
+}
+
+/** out = ρ·v for a state vector's amplitudes v (interleaved, length 2D). */
+function applyDensityMatrix(rho: DensityMatrix, v: Float64Array, out: Float64Array): void {
+  const d = rho.dim;
+  const R = rho.data;
+  for (let a = 0; a < d; a++) {
     let wr = 0;
     let wi = 0;
-    const row = 2 * i * d;
-    for (let j = 0; j < d; j++) {
-      const ar = r[row + 2 * j]!;
-      const ai = r[row + 2 * j + 1]!;
-      const br = v[2 * j]!;
-      const bi = v[2 * j + 1]!;
+    const row = 2 * a * d;
+    for (let b = 0; b < d; b++) {
+      const ar = R[row + 2 * b]!;
+      const ai = R[row + 2 * b + 1]!;
+      const br = v[2 * b]!;
+      const bi = v[2 * b + 1]!;
       wr += ar * br - ai * bi;
       wi += ar * bi + ai * br;
     }
-    acc += v[2 * i]! * wr + v[2 * i + 1]! * wi;
+    out[2 * a] = wr;
+    out[2 * a + 1] = wi;
   }
-  return acc;
 }
 
 /** Eigen-decomposition of the real embedding of a density matrix, checked positive semidefinite. */
