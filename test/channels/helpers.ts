@@ -8,14 +8,10 @@ import { gaussian, mulberry32 } from '../helpers/random.js';
 import { orthonormaliseColumns, randomGaussianMatrix } from '../engine/helpers.js';
 
 export { gaussian, mulberry32 };
+export { randomUnitary } from '../engine/helpers.js';
 
 /** Agreement required for conversions that are exact up to rounding. */
 export const ROUND_TRIP = 1e-12;
-
-/** Random d × d unitary (QR of a complex Gaussian matrix). */
-export function randomUnitary(rng: () => number, d: number): CMatrix {
-  return orthonormaliseColumns(randomGaussianMatrix(rng, d, d));
-}
 
 /**
  * Random CPTP channel on d dimensions with r Kraus operators: a random isometry V ((d·r) × d)
