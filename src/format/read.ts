@@ -1,5 +1,6 @@
 import { suggest } from '../circuit/suggest.js';
 import { parseDuration } from './duration.js';
+import { parseFrequency } from './frequency.js';
 import type { ProblemList, SourcePosition } from './problem.js';
 import { describe, type YEntry, type YMap, type YNode, type YScalar } from './yamlTree.js';
 
@@ -87,6 +88,20 @@ export function readDuration(node: YNode, what: string, problems: ProblemList): 
     return undefined;
   }
   return r.ns;
+}
+
+/** A frequency with a unit (Hz, kHz, MHz, GHz), in hertz; either sign. */
+export function readFrequency(node: YNode, what: string, problems: ProblemList): number | undefined {
+  if (node.kind !== 'scalar' || node.value === null || typeof node.value === 'boolean') {
+    problems.error(node.at, 'bad-frequency', `${what} must be a frequency with a unit such as 80kHz or -1.5MHz, not ${describe(node)}`);
+    return undefined;
+  }
+  const r = parseFrequency(String(node.value));
+  if ('error' in r) {
+    problems.error(node.at, 'bad-frequency', `${what}: ${r.error}`);
+    return undefined;
+  }
+  return r.hz;
 }
 
 /** true or false. */
