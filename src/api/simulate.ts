@@ -12,7 +12,7 @@ import { compilePlan } from '../plan/compilePlan.js';
 import type { Plan } from '../plan/plan.js';
 import { InputError, ProblemList, type Problem } from '../format/problem.js';
 import type { NoiseProfile } from '../noise/profile.js';
-import { buildProgram, type Program } from '../program/program.js';
+import { buildProgram, hasDrift, type Program } from '../program/program.js';
 import type { IdealState } from '../results/fidelity.js';
 import { computeFigures, DEFAULT_SEED, type Figures } from '../results/report.js';
 import { scheduleOperations, type Schedule } from '../schedule/schedule.js';
@@ -157,7 +157,7 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
 /** The plan of kernel calls the fast engine would run for a loaded circuit (nothing is simulated). Throws InputError on bad input. */
 export function planLoaded(loaded: LoadedCircuit, options: SimulateOptions = {}): PlannedRun {
   const { schedule, program, problems } = prepare(loaded, options);
-  const plan = buildPlan(program.n, program.noisy, { fuse: options.fuse !== false });
+  const plan = buildPlan(program.n, program.noisy, { fuse: options.fuse !== false, keepDiagonal: hasDrift(loaded.profile) });
   return { schedule, program, plan, problems };
 }
 
@@ -195,7 +195,7 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     rho = runNoisy(n, program.noisy, kernels);
     ideal = runIdeal(n, program.ideal, kernels);
   } else {
-    plan = buildPlan(n, program.noisy, { fuse: options.fuse !== false });
+    plan = buildPlan(n, program.noisy, { fuse: options.fuse !== false, keepDiagonal: hasDrift(profile) });
     rho = runCompiled(compilePlan(plan), pool);
     ideal = runIdeal(n, program.ideal, fastKernels);
   }

@@ -149,21 +149,32 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
     return { n, noisy, origins, ideal };
   }
 
-  // The event timeline. `lastOp[q]` is the operation that acted last on q; it only orders the
-  // (commuting) drift terms of a segment so that fusion folds them into existing groups.
+  // The event timeline. The drift terms of one segment commute with each other, so their order is
+  // free; it is chosen for fusion (src/plan/fuseInstructions.ts): first the pairs whose qubits were
+  // last touched by the same operation (their rzz merges into its group), last the pairs whose
+  // qubits are next touched by the same operation (their rzz opens the group that operation joins),
+  // the rest in between (diagonal groups that the plan batches).
+  const timeline = buildTimeline(schedule, n);
   const lastOp: (TimedOperation | undefined)[] = new Array<TimedOperation | undefined>(n).fill(undefined);
+  const upcoming: TimedOperation[][] = Array.from({ length: n }, () => []);
+  for (const ev of timeline.events) for (const i of ev.starts) for (const q of schedule.items[i]!.op.qubits) upcoming[q]!.push(schedule.items[i]!);
+  const nextIndex = new Array<number>(n).fill(0);
   const pairs = (profile.couplings ?? []).filter((c) => c.zz !== 0);
-  for (const ev of buildTimeline(schedule, n).events) {
+  const rank = (c: { a: number; b: number }): number => {
+    if (lastOp[c.a] !== undefined && lastOp[c.a] === lastOp[c.b]) return 0;
+    const na = upcoming[c.a]![nextIndex[c.a]!];
+    return na !== undefined && na === upcoming[c.b]![nextIndex[c.b]!] ? 2 : 1;
+  };
+  for (const ev of timeline.events) {
     if (ev.segment > 0) {
       const active = new Set(ev.driftQubits);
       const what = `drift ${Number(ev.segment.toPrecision(6))} ns`;
-      const live = pairs.filter((c) => active.has(c.a) && active.has(c.b));
-      // Pairs whose qubits were last touched by the same operation first: their rzz merges into that
-      // operation's fused group; the others then open 2-qubit groups the next gates on the pair join.
-      const shared = (c: { a: number; b: number }): boolean => lastOp[c.a] !== undefined && lastOp[c.a] === lastOp[c.b];
-      for (const c of [...live.filter(shared), ...live.filter((c) => !shared(c))]) {
-        noisy.push({ op: 'unitary', qubits: [c.a, c.b], matrix: zzRotation(zzAngle(c.zz, ev.segment)) });
-        origins.push({ step: -1, what });
+      const live = pairs.filter((c) => active.has(c.a) && active.has(c.b)).map((c) => ({ c, r: rank(c) }));
+      for (const r of [0, 1, 2]) {
+        for (const { c } of live.filter((x) => x.r === r)) {
+          noisy.push({ op: 'unitary', qubits: [c.a, c.b], matrix: zzRotation(zzAngle(c.zz, ev.segment)) });
+          origins.push({ step: -1, what });
+        }
       }
       for (const q of ev.driftQubits) {
         const delta = profile.qubits[q]!.detuning;
@@ -176,7 +187,10 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
     for (const i of ev.starts) {
       const item = schedule.items[i]!;
       emitOperation(item);
-      for (const q of item.op.qubits) lastOp[q] = item;
+      for (const q of item.op.qubits) {
+        lastOp[q] = item;
+        nextIndex[q]!++;
+      }
     }
   }
   return { n, noisy, origins, ideal };
