@@ -7,12 +7,13 @@
  */
 import * as math from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import { simulateLoaded, type Simulation } from '../../src/api/simulate.js';
-import { denseChannel, denseReset, embed, rhoDiff, DENSE_AGREEMENT } from '../engine/dense.js';
+import { simulateLoaded } from '../../src/api/simulate.js';
+import { denseProgramRun, embed, rhoDiff, DENSE_AGREEMENT } from '../engine/dense.js';
 import { loadText } from '../helpers/load.js';
 import { mulberry32 } from '../helpers/random.js';
 
-const SEEDS = Array.from({ length: 16 }, (_, i) => i + 1);
+/** Seeds per schedule: the dense mathjs route costs ~0.1–0.5 s per case on 2–4 qubits. */
+const SEEDS = Array.from({ length: 6 }, (_, i) => i + 1);
 
 function pick<T>(rng: () => number, xs: readonly T[]): T {
   return xs[Math.floor(rng() * xs.length)]!;
@@ -21,7 +22,7 @@ function pick<T>(rng: () => number, xs: readonly T[]): T {
 /** A random circuit with drift on every qubit, zz on a random coupling map, coherent errors, relaxation. */
 function randomCircuit(seed: number, schedule: 'asap' | 'alap'): string {
   const rng = mulberry32(seed * 131 + (schedule === 'alap' ? 7 : 0));
-  const n = 2 + Math.floor(rng() * 4);
+  const n = 2 + Math.floor(rng() * 3);
   const lines: string[] = [`qubits: ${n}`, 'noise:', `  schedule: ${schedule}`, '  qubits:', `    all: { t1: 40us, t2: 30us, detuning: ${Math.round(rng() * 400 - 200)}kHz }`];
   for (let q = 0; q < n; q++) if (rng() < 0.5) lines.push(`    ${q}: { detuning: ${(rng() * 2 - 1).toFixed(3)}MHz, t1: ${20 + Math.round(rng() * 60)}us }`);
   lines.push('  couplings:');
@@ -37,7 +38,7 @@ function randomCircuit(seed: number, schedule: 'asap' | 'alap'): string {
     `    measure: { duration: 700ns${rng() < 0.5 ? ', simultaneous: true' : ''} }`,
     'steps:',
   );
-  const steps = 6 + Math.floor(rng() * 10);
+  const steps = 5 + Math.floor(rng() * 7);
   for (let s = 0; s < steps; s++) {
     const u = rng();
     const q = Math.floor(rng() * n);
@@ -56,21 +57,6 @@ function randomCircuit(seed: number, schedule: 'asap' | 'alap'): string {
   return lines.join('\n') + '\n';
 }
 
-/** Dense re-run of the noisy program with mathjs. */
-function denseRun(s: Simulation): math.Matrix {
-  const n = s.program.n;
-  const d = 1 << n;
-  let rho = math.zeros(d, d) as math.Matrix;
-  rho.set([0, 0], math.complex(1, 0));
-  for (const ins of s.program.noisy) {
-    if (ins.op === 'unitary') {
-      const u = embed(n, ins.qubits, ins.matrix);
-      rho = math.multiply(math.multiply(u, rho), math.ctranspose(u)) as math.Matrix;
-    } else if (ins.op === 'channel') rho = denseChannel(n, ins.qubits, ins.kraus, rho);
-    else rho = denseReset(n, ins.qubit, rho);
-  }
-  return rho;
-}
 
 describe('drift, zz and coherent errors: fast engine against the dense mathjs route', () => {
   for (const policy of ['asap', 'alap'] as const) {
@@ -79,7 +65,7 @@ describe('drift, zz and coherent errors: fast engine against the dense mathjs ro
       const loaded = loadText(text);
       const fast = simulateLoaded(loaded, { threads: 1 });
       expect(fast.program.origins.some((o) => o.what.startsWith('drift'))).toBe(true);
-      const diff = rhoDiff(fast.rho, denseRun(fast));
+      const diff = rhoDiff(fast.rho, denseProgramRun(fast.program.n, fast.program.noisy));
       if (!(diff < DENSE_AGREEMENT)) console.log(`seed ${seed} ${policy}\n${text}`);
       expect(diff).toBeLessThan(DENSE_AGREEMENT);
       const ref = simulateLoaded(loaded, { engine: 'reference' });
@@ -89,7 +75,7 @@ describe('drift, zz and coherent errors: fast engine against the dense mathjs ro
     });
   }
 
-  it.each(SEEDS.slice(0, 6))('seed %i: the drift of every segment is exp(−iHΔ), H = Σ πδ_q Z_q + Σ (πζ/2) Z_a Z_b written densely', (seed) => {
+  it.each(SEEDS.slice(0, 4))('seed %i: the drift of every segment is exp(−iHΔ), H = Σ πδ_q Z_q + Σ (πζ/2) Z_a Z_b written densely', (seed) => {
     const s = simulateLoaded(loadText(randomCircuit(seed, 'asap')), { threads: 1 });
     const n = s.program.n;
     const d = 1 << n;

@@ -1,9 +1,7 @@
 import { readdirSync } from 'node:fs';
-import * as math from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import { simulate, type Simulation } from '../../src/api/simulate.js';
-import { denseChannel, denseReset, rhoDiff } from '../engine/dense.js';
-import { embed } from '../engine/dense.js';
+import { simulate } from '../../src/api/simulate.js';
+import { denseProgramRun, rhoDiff } from '../engine/dense.js';
 
 /**
  * The demo circuits run, and their headline numbers are recomputed by independent routes:
@@ -13,21 +11,6 @@ import { embed } from '../engine/dense.js';
  */
 const DEMOS = readdirSync('circuits').filter((f) => f.endsWith('.yaml'));
 
-/** Dense re-run of the noisy program: ρ → U ρ U†, Σ K ρ K†, reset, with mathjs. */
-function denseRun(sim: Simulation): math.Matrix {
-  const n = sim.program.n;
-  const d = 1 << n;
-  let rho = math.zeros(d, d) as math.Matrix;
-  rho.set([0, 0], math.complex(1, 0));
-  for (const ins of sim.program.noisy) {
-    if (ins.op === 'unitary') {
-      const u = embed(n, ins.qubits, ins.matrix);
-      rho = math.multiply(math.multiply(u, rho), math.ctranspose(u)) as math.Matrix;
-    } else if (ins.op === 'channel') rho = denseChannel(n, ins.qubits, ins.kraus, rho);
-    else rho = denseReset(n, ins.qubit, rho);
-  }
-  return rho;
-}
 
 describe('demo circuits', () => {
   it('there are at least four demos', () => {
@@ -41,7 +24,7 @@ describe('demo circuits', () => {
       expect(r.fidelity.state).toBeGreaterThan(0.5);
       expect(r.fidelity.state).toBeLessThan(1);
       expect(Object.values(r.probabilities.ideal).reduce((a, b) => a + b, 0)).toBeCloseTo(1, 12);
-      if (sim.program.n <= 5) expect(rhoDiff(sim.rho, denseRun(sim))).toBeLessThan(1e-12);
+      if (sim.program.n <= 5) expect(rhoDiff(sim.rho, denseProgramRun(sim.program.n, sim.program.noisy))).toBeLessThan(1e-12);
     });
   }
 
