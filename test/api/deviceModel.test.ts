@@ -120,3 +120,29 @@ steps:
     expect(parts.result.fidelity.state).toBeLessThan(whole.result.fidelity.state);
   });
 });
+
+describe('the report', () => {
+  it('--schedule lists drift per qubit and pair with the time it acts; the header names readout timing and drift', () => {
+    const s = sim(`qubits: 3
+noise:
+  qubits: { all: { detuning: 20kHz }, 2: { detuning: -1.5MHz } }
+  couplings: { "0 1": { zz: 80kHz }, "1 2": {} }
+  gates: { h: { duration: 100ns }, measure: { duration: 1us, simultaneous: true } }
+steps:
+  - h: 0
+  - measure: [0, 1]
+`);
+    const text = renderRunReport(s, { top: 4, showState: false, showSchedule: true }, makeStyle(false));
+    expect(text).toContain('  readout   simultaneous: each measure step starts all its measurements together\n');
+    expect(text).toContain('  drift     detuning on 3 qubits, zz on 1 pair; the ideal run has none (--schedule lists them)\n');
+    expect(text).toContain(
+      [
+        '  qubit 0       detuning       20 kHz   acts 0 → 100 ns',
+        '  qubit 1       detuning       20 kHz   acts 0 → 100 ns',
+        '  qubit 2       detuning     -1.5 MHz   acts 0 → 1100 ns',
+        '  pair  0 1     zz             80 kHz   acts 0 → 100 ns',
+        '  pair  1 2     coupled, no zz',
+      ].join('\n'),
+    );
+  });
+});
