@@ -30,3 +30,7 @@ export { pauliExpectation, blochVectors } from './results/observables.js';
 export type { CMatrix } from './linalg/cmatrix.js';
 export { Channel, checkPhysicality, channelMetrics, diamondDistance, nearestCptp, sequence, parallel } from './channels/index.js';
 export type { Physicality, ChannelMetrics, DiamondDistance, CptpRepair, ChannelForm } from './channels/index.js';
+export { mitigate, extrapolate, correctReadout, invertReadout, projectToSimplex, FIT_KINDS, READOUT_METHODS } from './mitigation/index.js';
+export type { MitigateOptions, MitigationResult, ObservableMitigation, ReadoutMitigation, ZneRecipe, Extrapolation, FitKind, ScalePoint, ReadoutMethod } from './mitigation/index.js';
+export { foldCircuit } from './transforms/index.js';
+export type { FoldOptions, FoldOrder, FoldResult } from './transforms/index.js';

@@ -3,6 +3,9 @@ import { InputError } from '../format/problem.js';
 import { runCommand } from './runCommand.js';
 import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
 import { makeStyle, wantColor } from './style.js';
+import { mitigateCommand, parseScales } from './mitigateCommand.js';
+import { FIT_KINDS } from '../mitigation/extrapolate.js';
+import { READOUT_METHODS } from '../mitigation/readoutCorrection.js';
 import { renderProblems } from './problems.js';
 
 /** Exit statuses of the fray command (the contract's): success, internal error, input error. */
@@ -75,6 +78,7 @@ function buildProgram(io: CliIO): Command {
         '  fray run circuits/ghz5.yaml                 report for a circuit and its device\n' +
         '  fray run circuits/ghz5.yaml --json          the same as one JSON object\n' +
         '  fray run --help                             every option of run\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,3,5 --readout inverse\n' +
         '\nExit status: 0 success, 2 input error (FILE:LINE:COL: message), 1 internal error.',
     );
 
@@ -136,6 +140,35 @@ function buildProgram(io: CliIO): Command {
       await channelCommand(file, name, opts, io);
     });
   channel.exitOverride();
+
+  const mitigateCmd = program
+    .command('mitigate')
+    .description('apply error mitigation (zero-noise extrapolation by folding, readout correction) and compare with the ideal answer')
+    .argument('<file>', 'circuit file (YAML)')
+    .option('--zne <scales>', 'extrapolate to zero noise from these folding scales, e.g. 1,3,5 (each ≥ 1)', parseScales)
+    .option('--fit <model>', `extrapolation: ${FIT_KINDS.join(', ')} (default richardson)`)
+    .option('--fold <order>', 'which gates fold once more for fractional scales: end (default) or random')
+    .option('--seed <s>', 'seed of --fold random (default 1)', parseSeed)
+    .option('--readout <method>', `correct the readout: ${READOUT_METHODS.join(', ')}`)
+    .addOption(new Option('--observe <pauli...>', 'observables to extrapolate, qubit 0 leftmost (repeatable or comma-separated), besides the circuit\'s observe:'))
+    .option('--json', 'print one JSON object instead of the tables')
+    .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
+    .addOption(new Option('--set <name=value...>', 'override a circuit parameter (repeatable)'))
+    .option('--threads <n>', 'threads sharing each pass on 9+ qubits (default: the machine\'s cores; 1 = off)', parseThreads)
+    .option('--no-color', 'plain text even on a terminal (NO_COLOR is respected too)')
+    .addHelpText(
+      'after',
+      '\nExamples:\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,3,5 --fit richardson --observe ZZII\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,1.5,2 --fold random --seed 4 --fit linear\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --readout bounded --json\n' +
+        '\nFolding turns each gate G into G (G†G)^k, G† taking G\'s profile entry (duration and noise); the\n' +
+        'ideal run is unchanged. See docs/mitigation.md for the fits and the readout correction.',
+    )
+    .action(async (file: string, opts: Record<string, unknown>) => {
+      await mitigateCommand(file, opts, io);
+    });
+  mitigateCmd.exitOverride();
   return program;
 }
 

@@ -1,0 +1,59 @@
+import { loadCircuit } from '../api/loadCircuit.js';
+import { mitigate, type MitigateOptions } from '../mitigation/mitigate.js';
+import { FIT_KINDS, type FitKind } from '../mitigation/extrapolate.js';
+import { READOUT_METHODS, type ReadoutMethod } from '../mitigation/readoutCorrection.js';
+import type { FoldOrder } from '../transforms/fold.js';
+import { renderMitigationReport } from './mitigateReport.js';
+import { toJson } from './json.js';
+import { makeStyle, wantColor } from './style.js';
+import { UsageError, type CliIO } from './main.js';
+import { parseObserveOptions, parseSetOptions } from './commonOptions.js';
+
+/** Largest noise scale `--zne` accepts (each fold adds two gates per gate; beyond this the run is mostly noise). */
+export const MAX_ZNE_SCALE = 99;
+
+/** `fray mitigate FILE`: parses the options, runs the mitigation, writes the table or JSON in one piece. */
+export async function mitigateCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
+  const zne = opts['zne'] as number[] | undefined;
+  const readout = opts['readout'] as string | undefined;
+  if (zne === undefined && readout === undefined) throw new UsageError('nothing to mitigate: give --zne SCALES, --readout METHOD, or both');
+  const fit = (opts['fit'] as string | undefined) ?? 'richardson';
+  if (!FIT_KINDS.includes(fit as FitKind)) throw new UsageError(`--fit ${fit}: expected one of ${FIT_KINDS.join(', ')}`);
+  const order = (opts['fold'] as string | undefined) ?? 'end';
+  if (order !== 'end' && order !== 'random') throw new UsageError(`--fold ${order}: expected end or random`);
+  if (zne === undefined && (opts['fit'] !== undefined || opts['fold'] !== undefined)) throw new UsageError('--fit and --fold shape a zero-noise extrapolation: give --zne SCALES too');
+  if (readout !== undefined && !READOUT_METHODS.includes(readout as ReadoutMethod)) throw new UsageError(`--readout ${readout}: expected one of ${READOUT_METHODS.join(', ')}`);
+  const observe = parseObserveOptions(opts['observe'] as string[] | undefined);
+  const loaded = loadCircuit(file, {
+    set: parseSetOptions(opts['set'] as string[] | undefined),
+    ...(opts['device'] !== undefined ? { device: String(opts['device']) } : {}),
+  });
+  if (zne !== undefined && observe.length === 0 && loaded.circuit.observe.length === 0) {
+    throw new UsageError("--zne extrapolates Pauli observables: give --observe P (or list them under 'observe:' in the circuit)");
+  }
+  const options: MitigateOptions = {
+    observe,
+    ...(zne !== undefined ? { zne: { scales: zne, fit: fit as FitKind, order: order as FoldOrder, ...(opts['seed'] !== undefined ? { seed: opts['seed'] as number } : {}) } } : {}),
+    ...(readout !== undefined ? { readout: readout as ReadoutMethod } : {}),
+    ...(opts['threads'] !== undefined ? { run: { threads: opts['threads'] as number } } : {}),
+  };
+  const result = mitigate(loaded, options);
+  if (opts['json']) {
+    io.stdout.write(toJson(result) + '\n');
+    return;
+  }
+  const color = wantColor(process.stdout, opts['color'] !== false) && io.stdout === process.stdout;
+  io.stdout.write(renderMitigationReport(result, makeStyle(color)));
+}
+
+/** `--zne 1,2,3`: distinct noise scales, each a number in [1, MAX_ZNE_SCALE], at least two. */
+export function parseScales(v: string): number[] {
+  const parts = v.split(',').map((s) => s.trim());
+  const scales = parts.map(Number);
+  if (parts.some((s) => s === '') || scales.some((x) => !Number.isFinite(x) || x < 1 || x > MAX_ZNE_SCALE)) {
+    throw new UsageError(`--zne ${v}: expected comma-separated noise scales from 1 to ${MAX_ZNE_SCALE}, e.g. --zne 1,3,5`);
+  }
+  if (scales.length < 2) throw new UsageError(`--zne ${v}: extrapolation needs at least 2 noise scales, e.g. --zne 1,3`);
+  if (new Set(scales).size !== scales.length) throw new UsageError(`--zne ${v}: the noise scales must be distinct`);
+  return scales;
+}
