@@ -32,5 +32,5 @@ export { Channel, checkPhysicality, channelMetrics, diamondDistance, nearestCptp
 export type { Physicality, ChannelMetrics, DiamondDistance, CptpRepair, ChannelForm } from './channels/index.js';
 export { mitigate, extrapolate, correctReadout, invertReadout, projectToSimplex, FIT_KINDS, READOUT_METHODS } from './mitigation/index.js';
 export type { MitigateOptions, MitigationResult, ObservableMitigation, ReadoutMitigation, ZneRecipe, Extrapolation, FitKind, ScalePoint, ReadoutMethod } from './mitigation/index.js';
-export { foldCircuit } from './transforms/index.js';
-export type { FoldOptions, FoldOrder, FoldResult } from './transforms/index.js';
+export { foldCircuit, insertDecoupling, DECOUPLING_SEQUENCES } from './transforms/index.js';
+export type { FoldOptions, FoldOrder, FoldResult, DecouplingOptions, DecouplingSequence, DecouplingInsertion, DecouplingSkip, DecouplingResult } from './transforms/index.js';

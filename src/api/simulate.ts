@@ -82,9 +82,9 @@ export interface Simulation {
   readonly warnings: readonly Problem[];
 }
 
-/** Schedules a loaded circuit with its profile's policy, durations and readout timing (split composites as their parts). */
-export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedule {
-  const durationOf = (op: Operation): number => {
+/** The scheduled duration (ns) of one application under a profile: its gate entry's, the reset's or measurement's, an idle step's own. */
+export function operationDuration(profile: NoiseProfile): (op: Operation) => number {
+  return (op: Operation): number => {
     switch (op.kind) {
       case 'gate':
         return profile.gateEntry(op.name, op.qubits).duration;
@@ -98,7 +98,11 @@ export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedu
         return 0;
     }
   };
-  return scheduleOperations(deviceOperations(circuit.operations, profile), circuit.register.n, durationOf, profile.schedule, {
+}
+
+/** Schedules a loaded circuit with its profile's policy, durations and readout timing (split composites as their parts). */
+export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedule {
+  return scheduleOperations(deviceOperations(circuit.operations, profile), circuit.register.n, operationDuration(profile), profile.schedule, {
     simultaneousMeasure: profile.simultaneousMeasure,
   });
 }
