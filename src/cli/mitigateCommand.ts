@@ -3,6 +3,8 @@ import { mitigate, type MitigateOptions } from '../mitigation/mitigate.js';
 import { FIT_KINDS, type FitKind } from '../mitigation/extrapolate.js';
 import { READOUT_METHODS, type ReadoutMethod } from '../mitigation/readoutCorrection.js';
 import type { FoldOrder } from '../transforms/fold.js';
+import { DECOUPLING_SEQUENCES, type DecouplingSequence } from '../transforms/decouple.js';
+import { parseDuration } from '../format/duration.js';
 import { renderMitigationReport } from './mitigateReport.js';
 import { toJson } from './json.js';
 import { makeStyle, wantColor } from './style.js';
@@ -16,7 +18,16 @@ export const MAX_ZNE_SCALE = 99;
 export async function mitigateCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
   const zne = opts['zne'] as number[] | undefined;
   const readout = opts['readout'] as string | undefined;
-  if (zne === undefined && readout === undefined) throw new UsageError('nothing to mitigate: give --zne SCALES, --readout METHOD, or both');
+  const dd = opts['dd'] as string | undefined;
+  if (zne === undefined && readout === undefined && dd === undefined) throw new UsageError('nothing to mitigate: give --zne SCALES, --readout METHOD, --dd SEQUENCE, or several');
+  if (dd !== undefined && !DECOUPLING_SEQUENCES.includes(dd as DecouplingSequence)) throw new UsageError(`--dd ${dd}: expected one of ${DECOUPLING_SEQUENCES.join(', ')}`);
+  if (dd === undefined && opts['minIdle'] !== undefined) throw new UsageError('--min-idle shapes dynamical decoupling: give --dd SEQUENCE too');
+  let minIdle = 0;
+  if (opts['minIdle'] !== undefined) {
+    const parsed = parseDuration(String(opts['minIdle']));
+    if ('error' in parsed) throw new UsageError(`--min-idle ${String(opts['minIdle'])}: ${parsed.error}`);
+    minIdle = parsed.ns;
+  }
   const fit = (opts['fit'] as string | undefined) ?? 'richardson';
   if (!FIT_KINDS.includes(fit as FitKind)) throw new UsageError(`--fit ${fit}: expected one of ${FIT_KINDS.join(', ')}`);
   const order = (opts['fold'] as string | undefined) ?? 'end';
@@ -31,10 +42,14 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
   if (zne !== undefined && observe.length === 0 && loaded.circuit.observe.length === 0) {
     throw new UsageError("--zne extrapolates Pauli observables: give --observe P (or list them under 'observe:' in the circuit)");
   }
+  if (dd !== undefined && readout === undefined && observe.length === 0 && loaded.circuit.observe.length === 0) {
+    throw new UsageError("--dd alone is judged by Pauli observables: give --observe P (or list them under 'observe:'), or --readout to compare distributions");
+  }
   const options: MitigateOptions = {
     observe,
     ...(zne !== undefined ? { zne: { scales: zne, fit: fit as FitKind, order: order as FoldOrder, ...(opts['seed'] !== undefined ? { seed: opts['seed'] as number } : {}) } } : {}),
     ...(readout !== undefined ? { readout: readout as ReadoutMethod } : {}),
+    ...(dd !== undefined ? { dd: { sequence: dd as DecouplingSequence, minIdle } } : {}),
     ...(opts['threads'] !== undefined ? { run: { threads: opts['threads'] as number } } : {}),
   };
   const result = mitigate(loaded, options);

@@ -1,13 +1,15 @@
 /**
- * One mitigation run on a loaded circuit: zero-noise extrapolation of the requested Pauli
- * observables by unitary folding (src/transforms/fold.ts, fits in ./extrapolate.ts) and
- * readout correction of the measured distribution (./readoutCorrection.ts), each compared
- * with the ideal answer, which a simulator knows exactly. Every noisy run goes through the
+ * One mitigation run on a loaded circuit, in this order: dynamical decoupling inserted into
+ * the idle windows (src/transforms/decouple.ts), zero-noise extrapolation of the requested
+ * Pauli observables by unitary folding (src/transforms/fold.ts, fits in ./extrapolate.ts), and
+ * readout correction of the measured distribution (./readoutCorrection.ts). Each figure is
+ * compared with the ideal answer, which a simulator knows exactly, and with the run as it is. Every noisy run goes through the
  * same `simulateLoaded` as `fray run`; folding changes the circuit, never the YAML.
  */
 import { simulateLoaded, measuredQubits, type SimulateOptions, type Simulation } from '../api/simulate.js';
 import type { LoadedCircuit } from '../api/loadCircuit.js';
 import { foldCircuit, type FoldOrder } from '../transforms/fold.js';
+import { insertDecoupling, type DecouplingInsertion, type DecouplingOptions, type DecouplingSequence, type DecouplingSkip } from '../transforms/decouple.js';
 import { ProblemList } from '../format/problem.js';
 import { extrapolate, fitProblem, type FitKind, type ScalePoint } from './extrapolate.js';
 import { correctReadout, type ReadoutMethod } from './readoutCorrection.js';
@@ -30,6 +32,8 @@ export interface MitigateOptions {
   readonly observe?: readonly string[];
   readonly zne?: ZneRecipe;
   readonly readout?: ReadoutMethod;
+  /** Dynamical decoupling inserted before anything else (src/transforms/decouple.ts). */
+  readonly dd?: DecouplingOptions;
   /** Engine options passed to every run (threads, engine, memory limit). */
   readonly run?: Omit<SimulateOptions, 'observe' | 'shots' | 'seed'>;
 }
@@ -43,11 +47,11 @@ export interface ObservableMitigation {
   readonly points: readonly ScalePoint[];
 }
 
-/** Readout correction of the scale-1 run: distributions over the measured bitstrings and their distance to the ideal before and after. */
+/** Readout correction of the scale-1 run (decoupled when asked): distributions over the measured bitstrings and their distance to the ideal before and after. */
 export interface ReadoutMitigation {
   readonly method: ReadoutMethod;
   readonly ideal: Record<string, number>;
-  /** As read (readout error included). */
+  /** As read (readout error included) in the unmitigated run. */
   readonly measured: Record<string, number>;
   readonly mitigated: Record<string, number>;
   readonly tvd_before: number;
@@ -59,6 +63,13 @@ export interface ReadoutMitigation {
 /** The result of `mitigate` (the JSON object of `fray mitigate --json`). */
 export interface MitigationResult {
   readonly file: string;
+  /** What the decoupling transform inserted and left (times in ns of the unmitigated schedule). */
+  readonly decoupling?: {
+    readonly sequence: DecouplingSequence;
+    readonly min_idle_ns: number;
+    readonly inserted: readonly DecouplingInsertion[];
+    readonly skipped: readonly DecouplingSkip[];
+  };
   readonly fit?: FitKind;
   readonly amplify?: 'fold';
   readonly observables: Record<string, ObservableMitigation>;
@@ -66,22 +77,25 @@ export interface MitigationResult {
   readonly warnings: readonly string[];
 }
 
-/** Runs the circuit at each folding scale and/or corrects its readout (see the module comment). Throws InputError on bad input. */
+/** Runs the circuit as it is and as mitigated (decoupled, then folded and extrapolated), and/or corrects its readout (see the module comment). Throws InputError on bad input. */
 export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): MitigationResult {
   const extra = options.observe ?? [];
   const runOptions: SimulateOptions = { ...(options.run ?? {}), observe: extra };
   const base = simulateLoaded(loaded, runOptions);
   const warnings = [...base.result.warnings];
+  const dd = options.dd === undefined ? undefined : insertDecoupling(loaded.circuit, loaded.profile, options.dd);
+  const mitigated: LoadedCircuit = dd === undefined ? loaded : { ...loaded, circuit: dd.circuit };
+  const first = dd === undefined ? base : simulateLoaded(mitigated, runOptions);
   const observables: Record<string, ObservableMitigation> = {};
   const zne = options.zne;
   if (zne !== undefined) {
     const runs: { scale: number; sim: Simulation }[] = [];
     for (const requested of zne.scales) {
-      const folded = foldCircuit(loaded.circuit, { scale: requested, ...(zne.order !== undefined ? { order: zne.order } : {}), ...(zne.seed !== undefined ? { seed: zne.seed } : {}) });
-      const sim = folded.scale === 1 ? base : simulateLoaded({ ...loaded, circuit: folded.circuit }, runOptions);
+      const folded = foldCircuit(mitigated.circuit, { scale: requested, ...(zne.order !== undefined ? { order: zne.order } : {}), ...(zne.seed !== undefined ? { seed: zne.seed } : {}) });
+      const sim = folded.scale === 1 ? first : simulateLoaded({ ...mitigated, circuit: folded.circuit }, runOptions);
       runs.push({ scale: folded.scale, sim });
     }
-    refuseUnfittable(loaded, runs.map((r) => r.scale), zne);
+    refuseUnfittable(mitigated, runs.map((r) => r.scale), zne);
     const problems = new ProblemList();
     const fits: [string, ObservableMitigation][] = [];
     for (const [p, v] of Object.entries(base.result.observables ?? {})) {
@@ -97,12 +111,18 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
     }
     problems.throwIfErrors();
     for (const [p, o] of fits) observables[p] = o;
+  } else if (dd !== undefined) {
+    for (const [p, v] of Object.entries(base.result.observables ?? {})) {
+      const value = first.result.observables![p]!.noisy;
+      observables[p] = { ideal: v.ideal, noisy: v.noisy, mitigated: value, stderr: null, points: [{ scale: 1, value }] };
+    }
   }
   return {
     file: loaded.circuit.file,
+    ...(dd !== undefined ? { decoupling: { sequence: options.dd!.sequence, min_idle_ns: options.dd!.minIdle, inserted: dd.inserted, skipped: dd.skipped } } : {}),
     ...(zne !== undefined ? { fit: zne.fit, amplify: 'fold' as const } : {}),
     observables,
-    ...(options.readout !== undefined ? { readout: readoutMitigation(base, options.readout) } : {}),
+    ...(options.readout !== undefined ? { readout: readoutMitigation(base, first, options.readout) } : {}),
     warnings,
   };
 }
@@ -129,25 +149,26 @@ function refuseUnfittable(loaded: LoadedCircuit, achieved: readonly number[], zn
   problems.throwIfErrors();
 }
 
-/** The readout correction of one run's measured distribution, against its ideal distribution. */
-function readoutMitigation(sim: Simulation, method: ReadoutMethod): ReadoutMitigation {
+/** The readout correction of the mitigated run's measured distribution, against the ideal one and the unmitigated run's. */
+function readoutMitigation(base: Simulation, sim: Simulation, method: ReadoutMethod): ReadoutMitigation {
   const { circuit, profile } = sim;
   const n = circuit.register.n;
   const measured = measuredQubits(circuit);
   const m = measured.length;
   const confusion = measured.map((q) => profile.qubits[q]!.readout);
   const pIdeal = marginal(idealDiagonal(sim.ideal), n, measured);
+  const pBefore = applyReadout(marginal(diagonalOf(base.rho), n, measured), confusion);
   const pRead = applyReadout(marginal(diagonalOf(sim.rho), n, measured), confusion);
   const pFixed = correctReadout(pRead, confusion, method);
   return {
     method,
     ideal: toOutcomeMap(pIdeal, m, LISTED_OUTCOME_THRESHOLD),
-    measured: toOutcomeMap(pRead, m, LISTED_OUTCOME_THRESHOLD),
+    measured: toOutcomeMap(pBefore, m, LISTED_OUTCOME_THRESHOLD),
     // an inverse can have negative entries: list every outcome whose magnitude is above the cut
     mitigated: signedOutcomeMap(pFixed, m),
-    tvd_before: totalVariationDistance(pIdeal, pRead),
+    tvd_before: totalVariationDistance(pIdeal, pBefore),
     tvd_after: totalVariationDistance(pIdeal, pFixed),
-    classical_before: classicalFidelity(pIdeal, pRead),
+    classical_before: classicalFidelity(pIdeal, pBefore),
     // classicalFidelity counts an inverse's negative entries as 0
     classical_after: classicalFidelity(pIdeal, pFixed),
   };

@@ -57,3 +57,24 @@ describe('fray mitigate', () => {
     expect(err).toMatch(/two\.yaml:3:1: --zne scales 1 and 1\.2 both fold to 1 with 2 gate applications; choose scales at least 1\.00 apart/);
   });
 });
+
+describe('fray mitigate --dd', () => {
+  it('lists where it inserted what, and reports the observables of the decoupled run', async () => {
+    const { code, out } = await fray('mitigate', DEMO, '--dd', 'xy4', '--min-idle', '200ns', '--no-color');
+    expect(code).toBe(0);
+    expect(out).toMatch(/Dynamical decoupling \(xy4, windows of at least 200 ns\)/);
+    expect(out).toMatch(/qubit 0 {3}310 ns → 870 ns {11}inserted x y x y/);
+    const j = JSON.parse((await fray('mitigate', DEMO, '--dd', 'xy4', '--min-idle', '200ns', '--json')).out);
+    expect(j.decoupling.inserted.every((i: { end: number; start: number }) => i.end - i.start >= 200)).toBe(true);
+    expect(j.observables.XXXX.points).toHaveLength(1);
+    expect(j.observables.XXXX.stderr).toBeNull();
+  });
+
+  it('bad --dd and --min-idle values exit 2', async () => {
+    for (const args of [['--dd', 'xy8'], ['--dd', 'xx', '--min-idle', '200'], ['--min-idle', '200ns', '--readout', 'inverse']]) {
+      const { code, err } = await fray('mitigate', DEMO, ...args);
+      expect(code, args.join(' ')).toBe(2);
+      expect(err).toMatch(/^fray: /);
+    }
+  });
+});
