@@ -21,6 +21,7 @@ import { warnOffMap } from '../noise/couplingMap.js';
 import { warnEntryFallback } from '../noise/entryFallback.js';
 import { loadCircuit, type LoadedCircuit, type LoadOptions } from './loadCircuit.js';
 import { pauliStringProblem } from '../circuit/pauliString.js';
+import type { PauliFrame } from '../noise/twirl.js';
 
 /** Options of one simulation run. */
 export interface SimulateOptions {
@@ -43,6 +44,8 @@ export interface SimulateOptions {
   readonly threads?: number;
   /** Fuse instructions into as few passes as possible (default true); false = one general kernel call per instruction. */
   readonly fuse?: boolean;
+  /** Gate applications whose noise is Pauli-framed (twirled exactly, or conjugated by a Pauli: src/noise/twirl.ts, src/transforms/twirl.ts). */
+  readonly frames?: ReadonlyMap<Operation, PauliFrame>;
 }
 
 /** The JSON object of `fray run --json` (the contract's keys plus a few of fray's own). */
@@ -153,7 +156,7 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
   const ops = schedule.items.map((it) => it.op);
   warnEntryFallback(ops, circuit, profile, problems);
   warnOffMap(schedule, profile.couplings, circuit.register, problems);
-  const program = buildProgram(circuit, profile, schedule, problems);
+  const program = buildProgram(circuit, profile, schedule, problems, options.frames !== undefined ? { frames: options.frames } : {});
   problems.throwIfErrors();
   return { schedule, program, problems };
 }

@@ -3,7 +3,7 @@ import { InputError } from '../format/problem.js';
 import { runCommand } from './runCommand.js';
 import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
 import { makeStyle, wantColor } from './style.js';
-import { mitigateCommand, parseScales } from './mitigateCommand.js';
+import { mitigateCommand, parseInstances, parseScales } from './mitigateCommand.js';
 import { FIT_KINDS } from '../mitigation/extrapolate.js';
 import { READOUT_METHODS } from '../mitigation/readoutCorrection.js';
 import { DECOUPLING_SEQUENCES } from '../transforms/decouple.js';
@@ -144,12 +144,13 @@ function buildProgram(io: CliIO): Command {
 
   const mitigateCmd = program
     .command('mitigate')
-    .description('apply error mitigation (dynamical decoupling, zero-noise extrapolation by folding, readout correction) and compare with the ideal answer')
+    .description('apply error mitigation (dynamical decoupling, Pauli twirling, zero-noise extrapolation by folding, readout correction) and compare with the ideal answer')
     .argument('<file>', 'circuit file (YAML)')
     .option('--zne <scales>', 'extrapolate to zero noise from these folding scales, e.g. 1,3,5 (each ≥ 1)', parseScales)
     .option('--fit <model>', `extrapolation: ${FIT_KINDS.join(', ')} (default richardson)`)
     .option('--fold <order>', 'which gates fold once more for fractional scales: end (default) or random')
-    .option('--seed <s>', 'seed of --fold random (default 1)', parseSeed)
+    .option('--twirl [instances]', 'Pauli-twirl the 2-qubit Clifford gates: exactly, or averaged over this many seeded random instances', parseInstances)
+    .option('--seed <s>', 'seed of --fold random and of --twirl instances (default 1)', parseSeed)
     .option('--readout <method>', `correct the readout: ${READOUT_METHODS.join(', ')}`)
     .option('--dd <sequence>', `fill idle windows with a decoupling sequence first: ${DECOUPLING_SEQUENCES.join(', ')}`)
     .option('--min-idle <duration>', 'shortest idle window --dd fills, e.g. 200ns (default: every window its pulses fit in)')
@@ -166,6 +167,7 @@ function buildProgram(io: CliIO): Command {
         '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,1.5,2 --fold random --seed 4 --fit linear\n' +
         '  fray mitigate circuits/mitigation/ghz-line.yaml --readout bounded --json\n' +
         '  fray mitigate circuits/mitigation/ghz-line.yaml --dd xy4 --min-idle 200ns --zne 1,3,5\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --twirl 50 --seed 2 --zne 1,3,5 --fit exponential\n' +
         '\nFolding turns each gate G into G (G†G)^k, G† taking G\'s profile entry (duration and noise); the\n' +
         'ideal run is unchanged. See docs/mitigation.md for the fits and the readout correction.',
     )

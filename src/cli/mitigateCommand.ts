@@ -19,7 +19,10 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
   const zne = opts['zne'] as number[] | undefined;
   const readout = opts['readout'] as string | undefined;
   const dd = opts['dd'] as string | undefined;
-  if (zne === undefined && readout === undefined && dd === undefined) throw new UsageError('nothing to mitigate: give --zne SCALES, --readout METHOD, --dd SEQUENCE, or several');
+  const twirl = opts['twirl'] as true | number | undefined;
+  if (zne === undefined && readout === undefined && dd === undefined && twirl === undefined) {
+    throw new UsageError('nothing to mitigate: give --zne SCALES, --readout METHOD, --dd SEQUENCE, --twirl [N], or several');
+  }
   if (dd !== undefined && !DECOUPLING_SEQUENCES.includes(dd as DecouplingSequence)) throw new UsageError(`--dd ${dd}: expected one of ${DECOUPLING_SEQUENCES.join(', ')}`);
   if (dd === undefined && opts['minIdle'] !== undefined) throw new UsageError('--min-idle shapes dynamical decoupling: give --dd SEQUENCE too');
   let minIdle = 0;
@@ -42,14 +45,15 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
   if (zne !== undefined && observe.length === 0 && loaded.circuit.observe.length === 0) {
     throw new UsageError("--zne extrapolates Pauli observables: give --observe P (or list them under 'observe:' in the circuit)");
   }
-  if (dd !== undefined && readout === undefined && observe.length === 0 && loaded.circuit.observe.length === 0) {
-    throw new UsageError("--dd alone is judged by Pauli observables: give --observe P (or list them under 'observe:'), or --readout to compare distributions");
+  if (zne === undefined && readout === undefined && observe.length === 0 && loaded.circuit.observe.length === 0) {
+    throw new UsageError("--dd and --twirl alone are judged by Pauli observables: give --observe P (or list them under 'observe:'), or --readout to compare distributions");
   }
   const options: MitigateOptions = {
     observe,
     ...(zne !== undefined ? { zne: { scales: zne, fit: fit as FitKind, order: order as FoldOrder, ...(opts['seed'] !== undefined ? { seed: opts['seed'] as number } : {}) } } : {}),
     ...(readout !== undefined ? { readout: readout as ReadoutMethod } : {}),
     ...(dd !== undefined ? { dd: { sequence: dd as DecouplingSequence, minIdle } } : {}),
+    ...(twirl !== undefined ? { twirl: twirl === true ? {} : { instances: twirl, ...(opts['seed'] !== undefined ? { seed: opts['seed'] as number } : {}) } } : {}),
     ...(opts['threads'] !== undefined ? { run: { threads: opts['threads'] as number } } : {}),
   };
   const result = mitigate(loaded, options);
@@ -59,6 +63,16 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
   }
   const color = wantColor(process.stdout, opts['color'] !== false) && io.stdout === process.stdout;
   io.stdout.write(renderMitigationReport(result, makeStyle(color)));
+}
+
+/** Largest number of sampled twirl instances (each is a full run per noise scale). */
+export const MAX_TWIRL_INSTANCES = 10000;
+
+/** `--twirl N`: a whole number of sampled instances, 1 to MAX_TWIRL_INSTANCES. */
+export function parseInstances(v: string): number {
+  const n = Number(v);
+  if (!/^\d+$/.test(v) || n < 1 || n > MAX_TWIRL_INSTANCES) throw new UsageError(`--twirl ${v}: expected a whole number of instances from 1 to ${MAX_TWIRL_INSTANCES} (or --twirl alone for the exact twirl)`);
+  return n;
 }
 
 /** `--zne 1,2,3`: distinct noise scales, each a number in [1, MAX_ZNE_SCALE], at least two. */

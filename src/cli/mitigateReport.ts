@@ -12,9 +12,15 @@ export function renderMitigationReport(r: MitigationResult, style: Style): strin
     for (const s of d.skipped) lines.push(style.dim(`  qubit ${String(s.qubit).padEnd(3)} ${window(s)}  left: ${s.reason}`));
     if (d.inserted.length + d.skipped.length === 0) lines.push('  no idle window long enough');
   }
+  if (r.twirl !== undefined) {
+    const t = r.twirl;
+    lines.push('', style.bold('Pauli twirling'));
+    lines.push(`  ${t.gates} 2-qubit Clifford gate application${t.gates === 1 ? '' : 's'} twirled ${t.mode === 'exact' ? 'exactly (the noise replaced by its Pauli twirl)' : `by ${t.instances} random instance${t.instances === 1 ? '' : 's'} (seed ${t.seed}), averaged`}`);
+  }
   const names = Object.keys(r.observables);
+  const how = [r.decoupling !== undefined ? 'decoupled' : '', r.twirl !== undefined ? 'twirled' : ''].filter((x) => x !== '').join(' and ');
   if (r.fit === undefined && names.length > 0) {
-    lines.push('', style.bold('Observables with decoupling (⟨P⟩ with qubit 0 leftmost)'));
+    lines.push('', style.bold(`Observables, ${how} (⟨P⟩ with qubit 0 leftmost)`));
     const pw = Math.max(10, ...names.map((k) => k.length));
     lines.push(`  ${style.dim('observable'.padEnd(pw))}${['ideal', 'noisy', 'mitigated', 'err before', 'err after'].map((h) => style.dim(h.padStart(11))).join('')}`);
     for (const k of names) {
@@ -24,7 +30,7 @@ export function renderMitigationReport(r: MitigationResult, style: Style): strin
   }
   if (r.fit !== undefined && names.length > 0) {
     const scales = r.observables[names[0]!]!.points.map((p) => p.scale);
-    lines.push('', style.bold(`Zero-noise extrapolation (unitary folding${r.decoupling !== undefined ? ' of the decoupled circuit' : ''}, ${r.fit} fit; ⟨P⟩ with qubit 0 leftmost)`));
+    lines.push('', style.bold(`Zero-noise extrapolation (unitary folding${how !== '' ? ` of the ${how} circuit` : ''}, ${r.fit} fit; ⟨P⟩ with qubit 0 leftmost)`));
     const pw = Math.max(10, ...names.map((k) => k.length));
     const head = ['ideal', 'noisy', 'mitigated', 'err before', 'err after', 'std err', ...scales.map((s) => `λ=${fmtScale(s)}`)];
     lines.push(`  ${style.dim('observable'.padEnd(pw))}${head.map((h) => style.dim(h.padStart(11))).join('')}`);

@@ -1,16 +1,20 @@
 /**
  * One mitigation run on a loaded circuit, in this order: dynamical decoupling inserted into
- * the idle windows (src/transforms/decouple.ts), zero-noise extrapolation of the requested
- * Pauli observables by unitary folding (src/transforms/fold.ts, fits in ./extrapolate.ts), and
- * readout correction of the measured distribution (./readoutCorrection.ts). Each figure is
- * compared with the ideal answer, which a simulator knows exactly, and with the run as it is. Every noisy run goes through the
- * same `simulateLoaded` as `fray run`; folding changes the circuit, never the YAML.
+ * the idle windows (src/transforms/decouple.ts), Pauli twirling of the 2-qubit Clifford gates
+ * (exact, or averaged over seeded instances: src/transforms/twirl.ts), zero-noise extrapolation
+ * of the requested Pauli observables by unitary folding (src/transforms/fold.ts, fits in
+ * ./extrapolate.ts), and readout correction of the measured distribution
+ * (./readoutCorrection.ts). Each figure is compared with the ideal answer, which a simulator
+ * knows exactly, and with the run as it is. Every noisy run goes through the same
+ * `simulateLoaded` as `fray run`; the transforms change the circuit, never the YAML.
  */
-import { simulateLoaded, measuredQubits, type SimulateOptions, type Simulation } from '../api/simulate.js';
+import { simulateLoaded, measuredQubits, type SimulateOptions } from '../api/simulate.js';
 import type { LoadedCircuit } from '../api/loadCircuit.js';
+import type { Circuit } from '../circuit/circuit.js';
+import { ProblemList } from '../format/problem.js';
 import { foldCircuit, type FoldOrder } from '../transforms/fold.js';
 import { insertDecoupling, type DecouplingInsertion, type DecouplingOptions, type DecouplingSequence, type DecouplingSkip } from '../transforms/decouple.js';
-import { ProblemList } from '../format/problem.js';
+import { twirlFrames, twirlSampler, type TwirlMode } from '../transforms/twirl.js';
 import { extrapolate, fitProblem, type FitKind, type ScalePoint } from './extrapolate.js';
 import { correctReadout, type ReadoutMethod } from './readoutCorrection.js';
 import { applyReadout, diagonalOf, marginal, toOutcomeMap } from '../results/probabilities.js';
@@ -26,19 +30,29 @@ export interface ZneRecipe {
   readonly seed?: number;
 }
 
+/** Pauli twirling: the exact twirl (instances absent), or the average of this many seeded instances. */
+export interface TwirlRecipe {
+  readonly instances?: number;
+  readonly seed?: number;
+}
+
+/** Default seed of sampled twirl instances, so that runs repeat. */
+export const DEFAULT_TWIRL_SEED = 1;
+
 /** What to mitigate and how. */
 export interface MitigateOptions {
   /** Pauli strings to extrapolate (qubit 0 leftmost), besides the circuit's `observe:`. */
   readonly observe?: readonly string[];
   readonly zne?: ZneRecipe;
   readonly readout?: ReadoutMethod;
-  /** Dynamical decoupling inserted before anything else (src/transforms/decouple.ts). */
+  /** Dynamical decoupling inserted before anything else. */
   readonly dd?: DecouplingOptions;
+  readonly twirl?: TwirlRecipe;
   /** Engine options passed to every run (threads, engine, memory limit). */
-  readonly run?: Omit<SimulateOptions, 'observe' | 'shots' | 'seed'>;
+  readonly run?: Omit<SimulateOptions, 'observe' | 'shots' | 'seed' | 'frames'>;
 }
 
-/** One observable: ideal ⟨P⟩, noisy ⟨P⟩ at scale 1, the zero-noise estimate, its standard error, and the value at each achieved scale. */
+/** One observable: ideal ⟨P⟩, noisy ⟨P⟩ of the circuit as it is, the mitigated value, the fit's standard error, and the value at each achieved scale. */
 export interface ObservableMitigation {
   readonly ideal: number;
   readonly noisy: number;
@@ -47,7 +61,7 @@ export interface ObservableMitigation {
   readonly points: readonly ScalePoint[];
 }
 
-/** Readout correction of the scale-1 run (decoupled when asked): distributions over the measured bitstrings and their distance to the ideal before and after. */
+/** Readout correction of the mitigated scale-1 run: distributions over the measured bitstrings and their distance to the ideal before (the circuit as it is) and after. */
 export interface ReadoutMitigation {
   readonly method: ReadoutMethod;
   readonly ideal: Record<string, number>;
@@ -70,6 +84,8 @@ export interface MitigationResult {
     readonly inserted: readonly DecouplingInsertion[];
     readonly skipped: readonly DecouplingSkip[];
   };
+  /** Twirling: exact, or the number of averaged instances and their seed; how many gate applications were twirled. */
+  readonly twirl?: { readonly mode: 'exact' | 'sampled'; readonly instances?: number; readonly seed?: number; readonly gates: number };
   readonly fit?: FitKind;
   readonly amplify?: 'fold';
   readonly observables: Record<string, ObservableMitigation>;
@@ -77,29 +93,64 @@ export interface MitigationResult {
   readonly warnings: readonly string[];
 }
 
-/** Runs the circuit as it is and as mitigated (decoupled, then folded and extrapolated), and/or corrects its readout (see the module comment). Throws InputError on bad input. */
+/** What one (possibly averaged) run yields for mitigation: ⟨P⟩ per observable and the measured distribution before readout error. */
+interface RunFigures {
+  readonly values: Record<string, number>;
+  readonly trueOutcomes: Float64Array;
+}
+
+/** Runs the circuit as it is and as mitigated (see the module comment). Throws InputError on bad input. */
 export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): MitigationResult {
-  const extra = options.observe ?? [];
-  const runOptions: SimulateOptions = { ...(options.run ?? {}), observe: extra };
+  const runOptions: SimulateOptions = { ...(options.run ?? {}), observe: options.observe ?? [] };
   const base = simulateLoaded(loaded, runOptions);
   const warnings = [...base.result.warnings];
+  const measured = measuredQubits(loaded.circuit);
+  const n = loaded.circuit.register.n;
   const dd = options.dd === undefined ? undefined : insertDecoupling(loaded.circuit, loaded.profile, options.dd);
-  const mitigated: LoadedCircuit = dd === undefined ? loaded : { ...loaded, circuit: dd.circuit };
-  const first = dd === undefined ? base : simulateLoaded(mitigated, runOptions);
+  const prepared = dd === undefined ? loaded.circuit : dd.circuit;
+  const tw = options.twirl;
+  let twirled = 0;
+  const figuresOf = (circuit: Circuit): RunFigures => {
+    const modes: TwirlMode[] = [];
+    // no twirl runs once without frames (`framed` below stays undefined)
+    if (tw === undefined || tw.instances === undefined) modes.push({ kind: 'exact' });
+    else {
+      const next = twirlSampler(tw.seed ?? DEFAULT_TWIRL_SEED);
+      for (let i = 0; i < tw.instances; i++) modes.push({ kind: 'sample', next });
+    }
+    const values: Record<string, number> = {};
+    const trueOutcomes = new Float64Array(1 << measured.length);
+    for (const mode of modes) {
+      const framed = tw === undefined ? undefined : twirlFrames(circuit, loaded.profile, mode);
+      if (framed !== undefined) {
+        twirled = Math.max(twirled, framed.twirled);
+        for (const w of framed.warnings) if (!warnings.includes(w)) warnings.push(w);
+      }
+      const sim = simulateLoaded({ ...loaded, circuit }, { ...runOptions, ...(framed !== undefined ? { frames: framed.frames } : {}) });
+      for (const [p, v] of Object.entries(sim.result.observables ?? {})) values[p] = (values[p] ?? 0) + v.noisy / modes.length;
+      const p = marginal(diagonalOf(sim.rho), n, measured);
+      for (let k = 0; k < p.length; k++) trueOutcomes[k] += p[k]! / modes.length;
+    }
+    return { values, trueOutcomes };
+  };
+  const unchanged = dd === undefined && tw === undefined;
+  const first: RunFigures = unchanged
+    ? { values: Object.fromEntries(Object.entries(base.result.observables ?? {}).map(([p, v]) => [p, v.noisy])), trueOutcomes: marginal(diagonalOf(base.rho), n, measured) }
+    : figuresOf(prepared);
+
   const observables: Record<string, ObservableMitigation> = {};
   const zne = options.zne;
+  const baseObs = Object.entries(base.result.observables ?? {});
   if (zne !== undefined) {
-    const runs: { scale: number; sim: Simulation }[] = [];
+    const runs: { scale: number; figures: RunFigures }[] = [];
     for (const requested of zne.scales) {
-      const folded = foldCircuit(mitigated.circuit, { scale: requested, ...(zne.order !== undefined ? { order: zne.order } : {}), ...(zne.seed !== undefined ? { seed: zne.seed } : {}) });
-      const sim = folded.scale === 1 ? first : simulateLoaded({ ...mitigated, circuit: folded.circuit }, runOptions);
-      runs.push({ scale: folded.scale, sim });
+      const folded = foldCircuit(prepared, { scale: requested, ...(zne.order !== undefined ? { order: zne.order } : {}), ...(zne.seed !== undefined ? { seed: zne.seed } : {}) });
+      runs.push({ scale: folded.scale, figures: folded.scale === 1 ? first : figuresOf(folded.circuit) });
     }
-    refuseUnfittable(mitigated, runs.map((r) => r.scale), zne);
+    refuseUnfittable(loaded, prepared, runs.map((r) => r.scale), zne);
     const problems = new ProblemList();
-    const fits: [string, ObservableMitigation][] = [];
-    for (const [p, v] of Object.entries(base.result.observables ?? {})) {
-      const points = runs.map((r) => ({ scale: r.scale, value: r.sim.result.observables![p]!.noisy }));
+    for (const [p, v] of baseObs) {
+      const points = runs.map((r) => ({ scale: r.scale, value: r.figures.values[p]! }));
       const bad = fitProblem(points, zne.fit);
       if (bad !== undefined) {
         // Located at the register, as a bad --observe string is.
@@ -107,30 +158,46 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
         continue;
       }
       const fit = extrapolate(points, zne.fit);
-      fits.push([p, { ideal: v.ideal, noisy: v.noisy, mitigated: fit.value, stderr: fit.stderr, points }]);
+      observables[p] = { ideal: v.ideal, noisy: v.noisy, mitigated: fit.value, stderr: fit.stderr, points };
     }
     problems.throwIfErrors();
-    for (const [p, o] of fits) observables[p] = o;
-  } else if (dd !== undefined) {
-    for (const [p, v] of Object.entries(base.result.observables ?? {})) {
-      const value = first.result.observables![p]!.noisy;
+  } else if (!unchanged) {
+    for (const [p, v] of baseObs) {
+      const value = first.values[p]!;
       observables[p] = { ideal: v.ideal, noisy: v.noisy, mitigated: value, stderr: null, points: [{ scale: 1, value }] };
     }
   }
+
+  const confusion = measured.map((q) => loaded.profile.qubits[q]!.readout);
+  const pIdeal = marginal(idealDiagonal(base.ideal), n, measured);
   return {
     file: loaded.circuit.file,
     ...(dd !== undefined ? { decoupling: { sequence: options.dd!.sequence, min_idle_ns: options.dd!.minIdle, inserted: dd.inserted, skipped: dd.skipped } } : {}),
+    ...(tw !== undefined
+      ? { twirl: tw.instances === undefined ? { mode: 'exact' as const, gates: twirled } : { mode: 'sampled' as const, instances: tw.instances, seed: tw.seed ?? DEFAULT_TWIRL_SEED, gates: twirled } }
+      : {}),
     ...(zne !== undefined ? { fit: zne.fit, amplify: 'fold' as const } : {}),
     observables,
-    ...(options.readout !== undefined ? { readout: readoutMitigation(base, first, options.readout) } : {}),
+    ...(options.readout !== undefined
+      ? {
+          readout: readoutMitigation(
+            pIdeal,
+            applyReadout(marginal(diagonalOf(base.rho), n, measured), confusion),
+            applyReadout(first.trueOutcomes, confusion),
+            confusion,
+            options.readout,
+            measured.length,
+          ),
+        }
+      : {}),
     warnings,
   };
 }
 
 /** Two requested scales that fold to the same achieved scale cannot both be fitted: an input error at the `steps:` key. */
-function refuseUnfittable(loaded: LoadedCircuit, achieved: readonly number[], zne: ZneRecipe): void {
+function refuseUnfittable(loaded: LoadedCircuit, prepared: Circuit, achieved: readonly number[], zne: ZneRecipe): void {
   const problems = new ProblemList();
-  const gates = loaded.circuit.operations.filter((op) => op.kind === 'gate').length;
+  const gates = prepared.operations.filter((op) => op.kind === 'gate').length;
   if (gates === 0) {
     problems.error(loaded.circuit.stepsAt, 'zne-scales', '--zne folds gates, and this circuit has no gate application to fold');
     problems.throwIfErrors();
@@ -149,16 +216,15 @@ function refuseUnfittable(loaded: LoadedCircuit, achieved: readonly number[], zn
   problems.throwIfErrors();
 }
 
-/** The readout correction of the mitigated run's measured distribution, against the ideal one and the unmitigated run's. */
-function readoutMitigation(base: Simulation, sim: Simulation, method: ReadoutMethod): ReadoutMitigation {
-  const { circuit, profile } = sim;
-  const n = circuit.register.n;
-  const measured = measuredQubits(circuit);
-  const m = measured.length;
-  const confusion = measured.map((q) => profile.qubits[q]!.readout);
-  const pIdeal = marginal(idealDiagonal(sim.ideal), n, measured);
-  const pBefore = applyReadout(marginal(diagonalOf(base.rho), n, measured), confusion);
-  const pRead = applyReadout(marginal(diagonalOf(sim.rho), n, measured), confusion);
+/** The readout correction of the mitigated run's read distribution, against the ideal one and the unmitigated run's. */
+function readoutMitigation(
+  pIdeal: Float64Array,
+  pBefore: Float64Array,
+  pRead: Float64Array,
+  confusion: Parameters<typeof correctReadout>[1],
+  method: ReadoutMethod,
+  m: number,
+): ReadoutMitigation {
   const pFixed = correctReadout(pRead, confusion, method);
   return {
     method,
@@ -180,4 +246,3 @@ function signedOutcomeMap(p: Float64Array, m: number): Record<string, number> {
   for (const key of Object.keys(all)) out[key] = p[parseInt(key === '' ? '0' : key, 2)]!;
   return out;
 }
-

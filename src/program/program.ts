@@ -7,6 +7,7 @@ import { detuningAngle, zRotation, zzAngle, zzRotation } from '../noise/coherent
 import type { NoiseProfile } from '../noise/profile.js';
 import type { IdleWindow, Schedule, TimedOperation } from '../schedule/schedule.js';
 import { buildTimeline } from '../schedule/timeline.js';
+import { frameNoise, type PauliFrame } from '../noise/twirl.js';
 
 /** Where a noisy instruction comes from: the step (0-based; −1 for idle windows) and what it is. */
 export interface Origin {
@@ -33,6 +34,12 @@ export function hasDrift(profile: NoiseProfile): boolean {
   return profile.qubits.some((q) => q.detuning !== 0) || (profile.couplings ?? []).some((c) => c.zz !== 0);
 }
 
+/** Options of buildProgram. */
+export interface ProgramOptions {
+  /** Gate applications whose noise is Pauli-framed (src/noise/twirl.ts): exactly twirled, or conjugated by one Pauli string. */
+  readonly frames?: ReadonlyMap<Operation, PauliFrame>;
+}
+
 /**
  * Builds the instruction lists.
  *
@@ -45,7 +52,7 @@ export function hasDrift(profile: NoiseProfile): boolean {
  * each operation preceded by the idle windows that end at its start on its own qubits: the same
  * evolution, and exactly version 1's instruction list (its outputs stay bit-for-bit the same).
  */
-export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: Schedule, problems: ProblemList): Program {
+export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: Schedule, problems: ProblemList, options: ProgramOptions = {}): Program {
   const n = circuit.register.n;
   const noisy: Instruction[] = [];
   const origins: Origin[] = [];
@@ -75,6 +82,7 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
     duration: number,
     thermal: boolean,
     kinds: NoiseKindsSpec,
+    frame?: PauliFrame,
   ): void => {
     const zzAt = misplacedZz(kinds, k);
     if (zzAt !== undefined) {
@@ -92,9 +100,9 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
         channels,
       });
       if (gn.warning !== undefined) warnOnce(kinds.error?.at ?? op.at, 'error-below-coherence-limit', `${label}: ${gn.warning}`);
-      for (const c of gn.channels) {
+      for (const c of frame === undefined ? gn.channels : frameNoise(gn.channels, k, frame)) {
         const on = c.targets.map((t) => qubits[t]!);
-        if (c.source === 'coherent') noisy.push({ op: 'unitary', qubits: on, matrix: c.kraus[0]! });
+        if (c.source === 'coherent' || c.source.startsWith('twirl ')) noisy.push({ op: 'unitary', qubits: on, matrix: c.kraus[0]! });
         else noisy.push({ op: 'channel', qubits: on, kraus: c.kraus });
         origins.push({ step: op.step, what: c.source === 'thermal' ? `thermal during ${label}` : c.source });
       }
@@ -119,7 +127,7 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
         noisy.push({ op: 'unitary', qubits: op.qubits, matrix: op.unitary });
         origins.push({ step: op.step, what: op.name });
         ideal.push({ op: 'unitary', qubits: op.qubits, matrix: op.unitary });
-        emitNoise(op, label, op.qubits.length, op.qubits, item.end - item.start, entry.thermal, kindsOf(op.noise, entry.kinds));
+        emitNoise(op, label, op.qubits.length, op.qubits, item.end - item.start, entry.thermal, kindsOf(op.noise, entry.kinds), options.frames?.get(op));
         break;
       }
       case 'reset': {

@@ -78,3 +78,15 @@ describe('fray mitigate --dd', () => {
     }
   });
 });
+
+describe('fray mitigate --twirl', () => {
+  it('twirls exactly, or averages seeded instances, and says how many gates it twirled', async () => {
+    const exact = JSON.parse((await fray('mitigate', DEMO, '--twirl', '--json')).out);
+    expect(exact.twirl).toEqual({ mode: 'exact', gates: 3 });
+    const sampled = JSON.parse((await fray('mitigate', DEMO, '--twirl', '3', '--seed', '2', '--json')).out);
+    expect(sampled.twirl).toEqual({ mode: 'sampled', instances: 3, seed: 2, gates: 3 });
+    const { code, err } = await fray('mitigate', DEMO, '--twirl', '0');
+    expect(code).toBe(2);
+    expect(err).toMatch(/--twirl 0: expected a whole number of instances/);
+  });
+});
