@@ -2,7 +2,8 @@ import { loadCircuit } from '../api/loadCircuit.js';
 import { mitigate, type MitigateOptions } from '../mitigation/mitigate.js';
 import { FIT_KINDS, type FitKind } from '../mitigation/extrapolate.js';
 import { READOUT_METHODS, type ReadoutMethod } from '../mitigation/readoutCorrection.js';
-import type { FoldOrder } from '../transforms/fold.js';
+import { MAX_FOLD_SCALE, type FoldOrder } from '../transforms/fold.js';
+import { MAX_TWIRL_INSTANCES } from '../transforms/twirl.js';
 import { DECOUPLING_SEQUENCES, type DecouplingSequence } from '../transforms/decouple.js';
 import { parseDuration } from '../format/duration.js';
 import { renderMitigationReport } from './mitigateReport.js';
@@ -10,9 +11,7 @@ import { toJson } from './json.js';
 import { makeStyle, wantColor } from './style.js';
 import { UsageError, type CliIO } from './main.js';
 import { parseObserveOptions, parseSetOptions } from './commonOptions.js';
-
-/** Largest noise scale `--zne` accepts (each fold adds two gates per gate; beyond this the run is mostly noise). */
-export const MAX_ZNE_SCALE = 99;
+import { recipeOptions } from '../mitigation/recipe.js';
 
 /** `fray mitigate FILE`: parses the options, runs the mitigation, writes the table or JSON in one piece. */
 export async function mitigateCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
@@ -20,9 +19,13 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
   const readout = opts['readout'] as string | undefined;
   const dd = opts['dd'] as string | undefined;
   const twirl = opts['twirl'] as true | number | undefined;
-  if (zne === undefined && readout === undefined && dd === undefined && twirl === undefined) {
-    throw new UsageError('nothing to mitigate: give --zne SCALES, --readout METHOD, --dd SEQUENCE, --twirl [N], or several');
-  }
+  const fromCommandLine = zne !== undefined || readout !== undefined || dd !== undefined || twirl !== undefined;
+  const fit = (opts['fit'] as string | undefined) ?? 'richardson';
+  if (!FIT_KINDS.includes(fit as FitKind)) throw new UsageError(`--fit ${fit}: expected one of ${FIT_KINDS.join(', ')}`);
+  const order = (opts['fold'] as string | undefined) ?? 'end';
+  if (order !== 'end' && order !== 'random') throw new UsageError(`--fold ${order}: expected end or random`);
+  if (zne === undefined && (opts['fit'] !== undefined || opts['fold'] !== undefined)) throw new UsageError('--fit and --fold shape a zero-noise extrapolation: give --zne SCALES too');
+  if (readout !== undefined && !READOUT_METHODS.includes(readout as ReadoutMethod)) throw new UsageError(`--readout ${readout}: expected one of ${READOUT_METHODS.join(', ')}`);
   if (dd !== undefined && !DECOUPLING_SEQUENCES.includes(dd as DecouplingSequence)) throw new UsageError(`--dd ${dd}: expected one of ${DECOUPLING_SEQUENCES.join(', ')}`);
   if (dd === undefined && opts['minIdle'] !== undefined) throw new UsageError('--min-idle shapes dynamical decoupling: give --dd SEQUENCE too');
   let minIdle = 0;
@@ -31,29 +34,35 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
     if ('error' in parsed) throw new UsageError(`--min-idle ${String(opts['minIdle'])}: ${parsed.error}`);
     minIdle = parsed.ns;
   }
-  const fit = (opts['fit'] as string | undefined) ?? 'richardson';
-  if (!FIT_KINDS.includes(fit as FitKind)) throw new UsageError(`--fit ${fit}: expected one of ${FIT_KINDS.join(', ')}`);
-  const order = (opts['fold'] as string | undefined) ?? 'end';
-  if (order !== 'end' && order !== 'random') throw new UsageError(`--fold ${order}: expected end or random`);
-  if (zne === undefined && (opts['fit'] !== undefined || opts['fold'] !== undefined)) throw new UsageError('--fit and --fold shape a zero-noise extrapolation: give --zne SCALES too');
-  if (readout !== undefined && !READOUT_METHODS.includes(readout as ReadoutMethod)) throw new UsageError(`--readout ${readout}: expected one of ${READOUT_METHODS.join(', ')}`);
   const observe = parseObserveOptions(opts['observe'] as string[] | undefined);
   const loaded = loadCircuit(file, {
     set: parseSetOptions(opts['set'] as string[] | undefined),
     ...(opts['device'] !== undefined ? { device: String(opts['device']) } : {}),
   });
-  if (zne !== undefined && observe.length === 0 && loaded.circuit.observe.length === 0) {
-    throw new UsageError("--zne extrapolates Pauli observables: give --observe P (or list them under 'observe:' in the circuit)");
+  const recipe = loaded.circuit.mitigation;
+  if (!fromCommandLine && recipe === undefined) {
+    throw new UsageError("nothing to mitigate: give --zne SCALES, --readout METHOD, --dd SEQUENCE, --twirl [N], or several (or a 'mitigation:' block in the circuit file)");
   }
-  if (zne === undefined && readout === undefined && observe.length === 0 && loaded.circuit.observe.length === 0) {
-    throw new UsageError("--dd and --twirl alone are judged by Pauli observables: give --observe P (or list them under 'observe:'), or --readout to compare distributions");
+  const seed = opts['seed'] as number | undefined;
+  const chosen: MitigateOptions = fromCommandLine
+    ? {
+        ...(zne !== undefined ? { zne: { scales: zne, fit: fit as FitKind, order: order as FoldOrder, ...(seed !== undefined ? { seed } : {}) } } : {}),
+        ...(readout !== undefined ? { readout: readout as ReadoutMethod } : {}),
+        ...(dd !== undefined ? { dd: { sequence: dd as DecouplingSequence, minIdle } } : {}),
+        ...(twirl !== undefined ? { twirl: twirl === true ? {} : { instances: twirl, ...(seed !== undefined ? { seed } : {}) } } : {}),
+      }
+    : recipeOptions(recipe!);
+  const hasObservables = observe.length > 0 || loaded.circuit.observe.length > 0;
+  const where = fromCommandLine ? '' : " (the file's 'mitigation:' block)";
+  if (chosen.zne !== undefined && !hasObservables) {
+    throw new UsageError(`zero-noise extrapolation${where} extrapolates Pauli observables: give --observe P (or list them under 'observe:' in the circuit)`);
+  }
+  if (chosen.zne === undefined && chosen.readout === undefined && !hasObservables) {
+    throw new UsageError(`decoupling and twirling${where} are judged by Pauli observables: give --observe P (or list them under 'observe:'), or a readout correction to compare distributions`);
   }
   const options: MitigateOptions = {
+    ...chosen,
     observe,
-    ...(zne !== undefined ? { zne: { scales: zne, fit: fit as FitKind, order: order as FoldOrder, ...(opts['seed'] !== undefined ? { seed: opts['seed'] as number } : {}) } } : {}),
-    ...(readout !== undefined ? { readout: readout as ReadoutMethod } : {}),
-    ...(dd !== undefined ? { dd: { sequence: dd as DecouplingSequence, minIdle } } : {}),
-    ...(twirl !== undefined ? { twirl: twirl === true ? {} : { instances: twirl, ...(opts['seed'] !== undefined ? { seed: opts['seed'] as number } : {}) } } : {}),
     ...(opts['threads'] !== undefined ? { run: { threads: opts['threads'] as number } } : {}),
   };
   const result = mitigate(loaded, options);
@@ -65,9 +74,6 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
   io.stdout.write(renderMitigationReport(result, makeStyle(color)));
 }
 
-/** Largest number of sampled twirl instances (each is a full run per noise scale). */
-export const MAX_TWIRL_INSTANCES = 10000;
-
 /** `--twirl N`: a whole number of sampled instances, 1 to MAX_TWIRL_INSTANCES. */
 export function parseInstances(v: string): number {
   const n = Number(v);
@@ -75,12 +81,12 @@ export function parseInstances(v: string): number {
   return n;
 }
 
-/** `--zne 1,2,3`: distinct noise scales, each a number in [1, MAX_ZNE_SCALE], at least two. */
+/** `--zne 1,2,3`: distinct noise scales, each a number in [1, MAX_FOLD_SCALE], at least two. */
 export function parseScales(v: string): number[] {
   const parts = v.split(',').map((s) => s.trim());
   const scales = parts.map(Number);
-  if (parts.some((s) => s === '') || scales.some((x) => !Number.isFinite(x) || x < 1 || x > MAX_ZNE_SCALE)) {
-    throw new UsageError(`--zne ${v}: expected comma-separated noise scales from 1 to ${MAX_ZNE_SCALE}, e.g. --zne 1,3,5`);
+  if (parts.some((s) => s === '') || scales.some((x) => !Number.isFinite(x) || x < 1 || x > MAX_FOLD_SCALE)) {
+    throw new UsageError(`--zne ${v}: expected comma-separated noise scales from 1 to ${MAX_FOLD_SCALE}, e.g. --zne 1,3,5`);
   }
   if (scales.length < 2) throw new UsageError(`--zne ${v}: extrapolation needs at least 2 noise scales, e.g. --zne 1,3`);
   if (new Set(scales).size !== scales.length) throw new UsageError(`--zne ${v}: the noise scales must be distinct`);

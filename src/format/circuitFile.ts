@@ -9,11 +9,12 @@ import { fileStart, ProblemList, type SourcePosition } from './problem.js';
 import { readProfile, type ProfileSpec } from './profileSpec.js';
 import { asMap, checkKeys, entryOf, offsetInto, readString } from './read.js';
 import { readRegister } from './register.js';
+import { readMitigation } from './mitigationBlock.js';
 import { readSteps } from './steps.js';
 import { describe, parseYamlTree, type YNode } from './yamlTree.js';
 
 /** Top-level keys of a circuit file. */
-export const CIRCUIT_KEYS = ['name', 'qubits', 'device', 'noise', 'params', 'gates', 'channels', 'observe', 'steps'] as const;
+export const CIRCUIT_KEYS = ['name', 'qubits', 'device', 'noise', 'params', 'gates', 'channels', 'observe', 'mitigation', 'steps'] as const;
 
 /** Options that change how a circuit file reads. */
 export interface CircuitReadOptions {
@@ -77,6 +78,9 @@ export function readCircuit(
     }
   }
 
+  const me = entryOf(map, 'mitigation');
+  const mitigation = me === undefined ? undefined : readMitigation(me.value, problems);
+
   if (register === undefined || se === undefined) return undefined;
   const operations = readSteps(se.value, { register, params, gates, channels }, problems);
   if (!problems.ok) return undefined;
@@ -96,6 +100,7 @@ export function readCircuit(
     gateArity,
     compositeGates,
     observe,
+    ...(mitigation !== undefined ? { mitigation } : {}),
     device,
     inlineNoise,
     operations,

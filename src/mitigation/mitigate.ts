@@ -84,7 +84,7 @@ export interface MitigationResult {
     readonly inserted: readonly DecouplingInsertion[];
     readonly skipped: readonly DecouplingSkip[];
   };
-  /** Twirling: exact, or the number of averaged instances and their seed; how many gate applications were twirled. */
+  /** Twirling: exact, or the number of averaged instances and their seed; how many gate applications of the unfolded circuit were twirled. */
   readonly twirl?: { readonly mode: 'exact' | 'sampled'; readonly instances?: number; readonly seed?: number; readonly gates: number };
   readonly fit?: FitKind;
   readonly amplify?: 'fold';
@@ -109,7 +109,6 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
   const dd = options.dd === undefined ? undefined : insertDecoupling(loaded.circuit, loaded.profile, options.dd);
   const prepared = dd === undefined ? loaded.circuit : dd.circuit;
   const tw = options.twirl;
-  let twirled = 0;
   const figuresOf = (circuit: Circuit): RunFigures => {
     const modes: TwirlMode[] = [];
     // no twirl runs once without frames (`framed` below stays undefined)
@@ -122,10 +121,7 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
     const trueOutcomes = new Float64Array(1 << measured.length);
     for (const mode of modes) {
       const framed = tw === undefined ? undefined : twirlFrames(circuit, loaded.profile, mode);
-      if (framed !== undefined) {
-        twirled = Math.max(twirled, framed.twirled);
-        for (const w of framed.warnings) if (!warnings.includes(w)) warnings.push(w);
-      }
+      for (const w of framed?.warnings ?? []) if (!warnings.includes(w)) warnings.push(w);
       const sim = simulateLoaded({ ...loaded, circuit }, { ...runOptions, ...(framed !== undefined ? { frames: framed.frames } : {}) });
       for (const [p, v] of Object.entries(sim.result.observables ?? {})) values[p] = (values[p] ?? 0) + v.noisy / modes.length;
       const p = marginal(diagonalOf(sim.rho), n, measured);
@@ -168,6 +164,8 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
     }
   }
 
+  // gate applications twirled in the circuit as run at scale 1 (folding adds more)
+  const twirled = tw === undefined ? 0 : twirlFrames(prepared, loaded.profile, { kind: 'exact' }).twirled;
   const confusion = measured.map((q) => loaded.profile.qubits[q]!.readout);
   const pIdeal = marginal(idealDiagonal(base.ideal), n, measured);
   return {

@@ -21,13 +21,10 @@ import { BUILTIN_GATES } from '../circuit/gates.js';
 import { operationDuration } from '../api/simulate.js';
 import type { NoiseProfile } from '../noise/profile.js';
 import { deviceOperations } from '../schedule/deviceOperations.js';
+import type { DecouplingSequence } from './sequences.js';
 import { scheduleOperations, type IdleWindow, type Schedule } from '../schedule/schedule.js';
 
-/** The decoupling sequences. */
-export type DecouplingSequence = 'xx' | 'xy4';
-
-/** The sequences in the order help texts list them. */
-export const DECOUPLING_SEQUENCES: readonly DecouplingSequence[] = ['xx', 'xy4'];
+export { DECOUPLING_SEQUENCES, type DecouplingSequence } from './sequences.js';
 
 /** What to insert: the sequence, the shortest window filled (ns), and optionally which qubits (default all). */
 export interface DecouplingOptions {

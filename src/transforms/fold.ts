@@ -35,6 +35,9 @@ export interface FoldResult {
   readonly folds: readonly number[];
 }
 
+/** Largest noise scale folding is asked for (`--zne`, `mitigation.zne.scales`): each unit adds two applications per gate, and beyond this the run is mostly noise. */
+export const MAX_FOLD_SCALE = 99;
+
 /** Default seed of random folding, so that runs repeat. */
 export const DEFAULT_FOLD_SEED = 1;
 

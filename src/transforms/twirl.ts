@@ -13,6 +13,9 @@ import type { NoiseProfile } from '../noise/profile.js';
 import type { PauliFrame } from '../noise/twirl.js';
 import { createRandom } from '../results/random.js';
 
+/** Largest number of sampled twirl instances asked for (`--twirl N`, `mitigation.twirl.instances`); each is a full run per noise scale. */
+export const MAX_TWIRL_INSTANCES = 10000;
+
 /** Largest deviation of |Tr(Q†·U P U†)|/d from 1 for U P U† to count as the Pauli Q up to a phase. */
 export const CLIFFORD_TOLERANCE = 1e-9;
 

@@ -38,7 +38,6 @@ describe('fray mitigate', () => {
       ['--zne', '1,3', '--fold', 'middle'],
       ['--readout', 'exact'],
       ['--fit', 'linear'],
-      [],
     ]) {
       const { code, err } = await fray('mitigate', DEMO, ...args);
       expect(code, args.join(' ')).toBe(2);
@@ -47,6 +46,9 @@ describe('fray mitigate', () => {
     }
     const noObs = tempFile('plain.yaml', 'qubits: 1\nsteps:\n  - x: 0\n');
     expect((await fray('mitigate', noObs, '--zne', '1,3')).err).toMatch(/--observe/);
+    const nothing = await fray('mitigate', noObs);
+    expect(nothing.code).toBe(2);
+    expect(nothing.err).toMatch(/nothing to mitigate/);
   });
 
   it('scales that fold to the same circuit are a located input error', async () => {
@@ -88,5 +90,17 @@ describe('fray mitigate --twirl', () => {
     const { code, err } = await fray('mitigate', DEMO, '--twirl', '0');
     expect(code).toBe(2);
     expect(err).toMatch(/--twirl 0: expected a whole number of instances/);
+  });
+});
+
+describe("fray mitigate with the file's mitigation: block", () => {
+  it('applies the recipe when no method is given, and the command line replaces it', async () => {
+    const recipe = JSON.parse((await fray('mitigate', DEMO, '--json')).out);
+    expect(recipe.twirl.mode).toBe('exact');
+    expect(recipe.fit).toBe('richardson');
+    expect(recipe.readout.method).toBe('inverse');
+    const given = JSON.parse((await fray('mitigate', DEMO, '--readout', 'bounded', '--json')).out);
+    expect(given.twirl).toBeUndefined();
+    expect(given.readout.method).toBe('bounded');
   });
 });
