@@ -3,3 +3,5 @@ export { foldCircuit, DEFAULT_FOLD_SEED } from './fold.js';
 export type { FoldOptions, FoldOrder, FoldResult } from './fold.js';
 export { insertDecoupling, DECOUPLING_SEQUENCES } from './decouple.js';
 export type { DecouplingOptions, DecouplingSequence, DecouplingInsertion, DecouplingSkip, DecouplingResult } from './decouple.js';
+export { twirlFrames, twirlSampler, isClifford } from './twirl.js';
+export type { TwirlFrames, TwirlMode } from './twirl.js';
