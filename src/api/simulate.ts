@@ -2,9 +2,15 @@ import type { Circuit, Operation } from '../circuit/circuit.js';
 import { fastKernels } from '../engine/fastKernels.js';
 import { referenceKernels, type Kernels } from '../engine/kernels.js';
 import type { DensityMatrix } from '../engine/layout.js';
-import { checkMemory, defaultMemoryLimit, MemoryLimitError } from '../engine/memory.js';
-import { MAX_IDEAL_BRANCHES, runIdeal, runNoisy } from '../engine/run.js';
-import { runCompiled, THREADS_MIN_QUBITS } from '../engine/runCompiled.js';
+import { checkMemory, checkRecordMemory, defaultMemoryLimit, MemoryLimitError } from '../engine/memory.js';
+import { applyInstruction, MAX_IDEAL_BRANCHES, runIdeal, runNoisy } from '../engine/run.js';
+import { applyCompiled, createSharedDensityMatrix, runCompiled, THREADS_MIN_QUBITS } from '../engine/runCompiled.js';
+import { runBranches, runIdealBranches, type BranchEngine, type BranchEnsemble, type IdealEnsemble } from '../engine/branches.js';
+import { maxBranches } from '../engine/recordProgram.js';
+import { createDensityMatrix } from '../engine/densityMatrix.js';
+import { densityMatrixBytes, stateVectorBytes } from '../engine/layout.js';
+import type { ThreadPool } from '../engine/threadPool.js';
+import { branchWeights, computeRecordFigures } from '../results/recordFigures.js';
 import { defaultThreads, sharedThreadPool } from '../engine/threadPool.js';
 import { WARM_MIN_QUBITS, warmKernels } from '../engine/warmKernels.js';
 import { buildPlan } from '../plan/buildPlan.js';
@@ -51,6 +57,8 @@ export interface RunResult {
   readonly labels?: readonly string[];
   readonly measured: readonly number[];
   readonly measured_labels?: readonly string[];
+  /** Record mode: the record's bit names in order (character i of a probabilities key is bit i). */
+  readonly bits?: readonly string[];
   readonly schedule: 'asap' | 'alap';
   readonly duration_ns: number;
   readonly probabilities: Figures['probabilities'];
@@ -73,8 +81,12 @@ export interface Simulation {
   readonly program: Program;
   /** The plan the fast engine ran (absent on the reference engine). */
   readonly plan?: Plan;
+  /** The final noisy state (record mode: Σ_r ρ_r, the record discarded). */
   readonly rho: DensityMatrix;
+  /** The final ideal state (record mode: Σ_r σ_r). */
   readonly ideal: IdealState;
+  /** Record mode: the branches of the run with every noise source (readout error included) and of the ideal run. */
+  readonly branches?: { readonly noisy: BranchEnsemble; readonly ideal: IdealEnsemble };
   readonly result: RunResult;
   readonly warnings: readonly Problem[];
 }
@@ -95,11 +107,12 @@ export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedu
         return 0;
     }
   };
-  return scheduleOperations(circuit.operations, circuit.register.n, durationOf, profile.schedule);
+  return scheduleOperations(circuit.operations, circuit.register.n, durationOf, profile.schedule, profile.measureLatency);
 }
 
-/** Measured qubits, ascending: those named by `measure` steps, or all qubits when there is none. */
+/** Measured qubits, ascending: those named by `measure` steps, or all qubits when there is none; none in record mode. */
 export function measuredQubits(circuit: Circuit): number[] {
+  if (circuit.bits !== null) return [];
   const qs = new Set<number>();
   for (const op of circuit.operations) if (op.kind === 'measure') qs.add(op.qubits[0]!);
   if (qs.size === 0) return Array.from({ length: circuit.register.n }, (_, i) => i);
@@ -170,6 +183,7 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
   const pool = fast && threads > 1 && n >= THREADS_MIN_QUBITS ? sharedThreadPool(threads) : undefined;
   if (fast && n >= WARM_MIN_QUBITS) warmKernels();
   const { schedule, program, problems } = prepare(loaded, options);
+  if (program.record !== null) return simulateRecord(loaded, options, schedule, program, problems, fast ? pool : undefined, fast);
   try {
     checkMemory(n, idealStaysOnVectors(program), options.maxMemoryBytes ?? defaultMemoryLimit());
   } catch (e) {
@@ -221,6 +235,102 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     warnings: problems.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`),
   };
   return { circuit, profile, schedule, program, ...(plan !== undefined ? { plan } : {}), rho, ideal, result, warnings: problems.warnings };
+}
+
+/**
+ * The branch engine of a run: the fast engine prepares each run of instructions as a fused,
+ * compiled plan applied to shared-memory branches (threads within each branch); the
+ * reference engine applies the instructions one by one with `kernels`.
+ */
+function branchEngine(options: SimulateOptions, fast: boolean, pool: ThreadPool | undefined): BranchEngine {
+  if (fast) {
+    return {
+      allocate: (n) => {
+        const rho = createSharedDensityMatrix(n);
+        rho.data[0] = 0;
+        return rho;
+      },
+      initial: createSharedDensityMatrix,
+      prepare: (n, instructions) => {
+        const plan = compilePlan(buildPlan(n, instructions, { fuse: options.fuse !== false }));
+        return (rho) => applyCompiled(rho, plan, pool);
+      },
+    };
+  }
+  const kernels = options.kernels ?? referenceKernels;
+  return {
+    allocate: (n) => {
+      const rho = createDensityMatrix(n);
+      rho.data[0] = 0;
+      return rho;
+    },
+    initial: createDensityMatrix,
+    prepare: (_n, instructions) => (rho) => {
+      for (const ins of instructions) applyInstruction(rho, ins, kernels);
+    },
+  };
+}
+
+/** Record mode (format version 2, part B): the branch ensembles of the noisy, readout-free and ideal runs, and their figures. */
+function simulateRecord(
+  loaded: LoadedCircuit,
+  options: SimulateOptions,
+  schedule: Schedule,
+  program: Program,
+  problems: ProblemList,
+  pool: ThreadPool | undefined,
+  fast: boolean,
+): Simulation {
+  const { circuit, profile } = loaded;
+  const n = circuit.register.n;
+  const record = program.record!;
+  const bits = circuit.bits!;
+  const branchCount = maxBranches(record.noisy);
+  try {
+    const idealPerBranch = Math.min(densityMatrixBytes(n), MAX_IDEAL_BRANCHES * stateVectorBytes(n));
+    checkRecordMemory(n, branchCount, idealPerBranch, options.maxMemoryBytes ?? defaultMemoryLimit());
+  } catch (e) {
+    if (e instanceof MemoryLimitError) {
+      problems.error(circuit.qubitsAt, 'memory-limit', e.message);
+      problems.throwIfErrors();
+    }
+    throw e;
+  }
+  const engine = branchEngine(options, fast, pool);
+  const hasReadout = record.noisy.some((ins) => ins.kind === 'measure' && (ins.zeroAsOne !== 0 || ins.oneAsZero !== 0));
+  // the readout-free run only feeds probabilities.noisy: keep its weights, free its branches
+  const withoutReadout = hasReadout ? branchWeights(runBranches(n, bits.length, record.noisy, engine, { readout: false })) : undefined;
+  const noisy = runBranches(n, bits.length, record.noisy, engine);
+  const idealBranches = runIdealBranches(n, bits.length, record.ideal, fast ? fastKernels : (options.kernels ?? referenceKernels));
+  const observe = [...new Set([...circuit.observe.map((o) => o.value), ...(options.observe ?? [])])];
+  const { figures, rho, ideal } = computeRecordFigures(noisy, withoutReadout ?? branchWeights(noisy), idealBranches, {
+    n,
+    bits: bits.length,
+    observe,
+    ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED } : {}),
+  });
+  const labels = circuit.register.labels;
+  const result: RunResult = {
+    name: circuit.name,
+    file: circuit.file,
+    device: profile.name,
+    qubits: n,
+    ...(labels !== null ? { labels } : {}),
+    measured: [],
+    ...(labels !== null ? { measured_labels: [] } : {}),
+    bits,
+    schedule: schedule.policy,
+    duration_ns: schedule.duration,
+    probabilities: figures.probabilities,
+    fidelity: figures.fidelity,
+    tvd: figures.tvd,
+    purity: figures.purity,
+    bloch: figures.bloch,
+    ...(figures.observables !== undefined ? { observables: figures.observables } : {}),
+    ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED, counts: figures.counts } : {}),
+    warnings: problems.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`),
+  };
+  return { circuit, profile, schedule, program, rho, ideal, branches: { noisy, ideal: idealBranches }, result, warnings: problems.warnings };
 }
 
 /** Reads, validates and runs a circuit file (the one easy call). Throws InputError on bad input. */

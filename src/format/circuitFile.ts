@@ -9,11 +9,12 @@ import { fileStart, ProblemList, type SourcePosition } from './problem.js';
 import { readProfile, type ProfileSpec } from './profileSpec.js';
 import { asMap, checkKeys, entryOf, offsetInto, readString } from './read.js';
 import { readRegister } from './register.js';
+import { RecordReader } from './record.js';
 import { readSteps } from './steps.js';
 import { describe, parseYamlTree, type YNode } from './yamlTree.js';
 
 /** Top-level keys of a circuit file. */
-export const CIRCUIT_KEYS = ['name', 'qubits', 'device', 'noise', 'params', 'gates', 'channels', 'observe', 'steps'] as const;
+export const CIRCUIT_KEYS = ['name', 'qubits', 'device', 'noise', 'params', 'gates', 'channels', 'observe', 'bits', 'steps'] as const;
 
 /** Options that change how a circuit file reads. */
 export interface CircuitReadOptions {
@@ -78,7 +79,9 @@ export function readCircuit(
   }
 
   if (register === undefined || se === undefined) return undefined;
-  const operations = readSteps(se.value, { register, params, gates, channels }, problems);
+  const record = new RecordReader();
+  const read = readSteps(se.value, { register, params, gates, channels }, problems, record);
+  const { bits, operations } = record.finish(entryOf(map, 'bits'), read, problems);
   if (!problems.ok) return undefined;
 
   const gateArity = new Map<string, number>();
@@ -96,6 +99,7 @@ export function readCircuit(
     operations,
     stepsAt: se.keyAt,
     qubitsAt: qe!.value.at,
+    bits,
   };
 }
 

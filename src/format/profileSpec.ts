@@ -30,6 +30,8 @@ export interface QubitEntrySpec {
 /** One `gates:` entry of a noise profile as written (duration in ns). */
 export interface GateEntrySpec {
   duration?: Loc<number>;
+  /** Classical latency after a measurement before a step it conditions may start (ns; the `measure` entry only). */
+  latency?: Loc<number>;
   thermal?: Loc<boolean>;
   kinds: NoiseKindsSpec;
 }
@@ -56,7 +58,7 @@ export interface ProfileSpec {
 /** The top-level keys of a noise profile. */
 export const PROFILE_KEYS = ['name', 'qubits', 'gates', 'idle', 'schedule'] as const;
 const QUBIT_KEYS = ['t1', 't2', 'excited', 'readout'] as const;
-const GATE_KEYS = ['duration', 'thermal', ...NOISE_KIND_KEYS] as const;
+const GATE_KEYS = ['duration', 'thermal', 'latency', ...NOISE_KIND_KEYS] as const;
 
 /** Reads a noise profile map (device file root or inline `noise:`) into a ProfileSpec. */
 export function readProfile(
@@ -160,6 +162,9 @@ function readGateEntry(node: YNode, where: string, problems: ProblemList): GateE
     if (e.key === 'duration') {
       const ns = readDuration(e.value, what, problems);
       if (ns !== undefined) out.duration = { value: ns, at: e.value.at };
+    } else if (e.key === 'latency') {
+      const ns = readDuration(e.value, what, problems);
+      if (ns !== undefined) out.latency = { value: ns, at: e.value.at };
     } else if (e.key === 'thermal') {
       const b = readBoolean(e.value, what, problems);
       if (b !== undefined) out.thermal = { value: b, at: e.value.at };

@@ -32,6 +32,8 @@ export interface NoiseProfile {
   readonly schedule: 'asap' | 'alap';
   /** Duration of a measurement, ns. */
   readonly measureDuration: number;
+  /** Classical latency (ns) from a measurement's end to the earliest start of a step conditioned on its bit. */
+  readonly measureLatency: number;
   /** The reset entry (thermal is always false: no relaxation during a reset). */
   readonly reset: GateEntry;
   /** The entry for gate `name` on `qubits`: tuple entry > name entry > `all`, merged field by field. */
@@ -48,6 +50,7 @@ export function noiselessProfile(n: number): NoiseProfile {
     idle: 'none',
     schedule: 'asap',
     measureDuration: 0,
+    measureLatency: 0,
     reset: empty,
     gateEntry: () => empty,
   };
@@ -55,6 +58,7 @@ export function noiselessProfile(n: number): NoiseProfile {
 
 interface PartialGate {
   duration?: Loc<number>;
+  latency?: Loc<number>;
   thermal?: Loc<boolean>;
   kinds: NoiseKindsSpec;
 }
@@ -70,6 +74,7 @@ export function mergeGateEntries(base: PartialGate, over: PartialGate): PartialG
   Object.assign(kinds, stripUndefined(over.kinds));
   return {
     ...(over.duration ?? base.duration ? { duration: over.duration ?? base.duration } : {}),
+    ...(over.latency ?? base.latency ? { latency: over.latency ?? base.latency } : {}),
     ...(over.thermal ?? base.thermal ? { thermal: over.thermal ?? base.thermal } : {}),
     kinds,
   };
@@ -121,6 +126,10 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
     }
     for (const { key, keyAt, entry } of spec.gates) {
       const where = `gate entry '${key}'`;
+      if (entry.latency !== undefined && key !== 'measure') {
+        problems.error(entry.latency.at, 'bad-latency', `${where}: 'latency' belongs to the 'measure' entry (the classical delay before a step conditioned on a measured bit)`);
+        continue;
+      }
       if (key === 'all') {
         gateAll = mergeGateEntries(gateAll, entry);
       } else if (key === 'measure') {
@@ -197,6 +206,7 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
     idle,
     schedule,
     measureDuration: measure.duration?.value ?? 0,
+    measureLatency: measure.latency?.value ?? 0,
     reset: { ...finish(reset, false), thermal: false },
     gateEntry(gate, qs) {
       const tk = tupleKey(gate, qs);
