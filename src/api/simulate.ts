@@ -5,7 +5,7 @@ import type { DensityMatrix } from '../engine/layout.js';
 import { checkMemory, checkRecordMemory, defaultMemoryLimit, MemoryLimitError } from '../engine/memory.js';
 import { applyInstruction, MAX_IDEAL_BRANCHES, runIdeal, runNoisy } from '../engine/run.js';
 import { applyCompiled, createSharedDensityMatrix, runCompiled, THREADS_MIN_QUBITS } from '../engine/runCompiled.js';
-import { runBranches, runIdealBranches, type BranchEngine, type BranchEnsemble, type IdealEnsemble } from '../engine/branches.js';
+import { runBranches, runIdealBranches, segments, type BranchEngine, type BranchEnsemble, type IdealEnsemble } from '../engine/branches.js';
 import { maxBranches } from '../engine/recordProgram.js';
 import { createDensityMatrix } from '../engine/densityMatrix.js';
 import { densityMatrixBytes, stateVectorBytes } from '../engine/layout.js';
@@ -15,7 +15,7 @@ import { defaultThreads, sharedThreadPool } from '../engine/threadPool.js';
 import { WARM_MIN_QUBITS, warmKernels } from '../engine/warmKernels.js';
 import { buildPlan } from '../plan/buildPlan.js';
 import { compilePlan } from '../plan/compilePlan.js';
-import type { Plan } from '../plan/plan.js';
+import type { Plan, PlannedSegment } from '../plan/plan.js';
 import { InputError, ProblemList, type Problem } from '../format/problem.js';
 import type { NoiseProfile } from '../noise/profile.js';
 import { buildProgram, type Program } from '../program/program.js';
@@ -123,7 +123,12 @@ export function measuredQubits(circuit: Circuit): number[] {
 export interface PlannedRun {
   readonly schedule: Schedule;
   readonly program: Program;
+  /** The plan of the noisy run (record mode: of its instructions outside any segment, i.e. empty; see `segments`). */
   readonly plan: Plan;
+  /** Record mode: the noisy run's segments in order, each run of instructions with its own plan. */
+  readonly segments?: readonly PlannedSegment[];
+  /** Record mode: the record's bit names in order. */
+  readonly bits?: readonly string[];
   readonly problems: ProblemList;
 }
 
@@ -162,8 +167,15 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
 /** The plan of kernel calls the fast engine would run for a loaded circuit (nothing is simulated). Throws InputError on bad input. */
 export function planLoaded(loaded: LoadedCircuit, options: SimulateOptions = {}): PlannedRun {
   const { schedule, program, problems } = prepare(loaded, options);
-  const plan = buildPlan(program.n, program.noisy, { fuse: options.fuse !== false });
-  return { schedule, program, plan, problems };
+  const fuse = options.fuse !== false;
+  const plan = buildPlan(program.n, program.noisy, { fuse });
+  if (program.record === null) return { schedule, program, plan, problems };
+  const planned = segments(program.record.noisy).map((seg): PlannedSegment =>
+    seg.kind === 'measure'
+      ? { kind: 'measure', qubit: seg.qubit, bit: seg.bit }
+      : { kind: 'apply', ...(seg.when !== undefined ? { when: seg.when } : {}), plan: buildPlan(program.n, seg.instructions, { fuse }), origins: seg.origins },
+  );
+  return { schedule, program, plan, segments: planned, bits: loaded.circuit.bits ?? [], problems };
 }
 
 /** Reads a circuit file and returns its plan (`fray run --plan`). Throws InputError on bad input. */

@@ -1,5 +1,5 @@
 import { planFile, simulate } from '../api/simulate.js';
-import { formatPlan, planToJson } from '../plan/formatPlan.js';
+import { formatPlan, formatRecordPlan, planToJson, recordPlanToJson } from '../plan/formatPlan.js';
 import { parseByteSize } from '../engine/memory.js';
 import { renderRunReport } from './runReport.js';
 import { toJson } from './json.js';
@@ -32,6 +32,11 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
   };
   if (opts['plan'] === true) {
     const planned = planFile(file, options);
+    if (planned.segments !== undefined) {
+      const bits = planned.bits ?? [];
+      io.stdout.write(opts['json'] ? toJson(recordPlanToJson(planned.segments, bits)) + '\n' : formatRecordPlan(planned.segments, bits));
+      return;
+    }
     const origins = planned.program.origins;
     io.stdout.write(opts['json'] ? toJson(planToJson(planned.plan, origins)) + '\n' : formatPlan(planned.plan, origins));
     return;

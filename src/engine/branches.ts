@@ -8,7 +8,7 @@
 import type { Instruction } from './instruction.js';
 import type { DensityMatrix, StateVector } from './layout.js';
 import { qubitMask } from './layout.js';
-import { conditionHolds, withBit, type RecordCondition, type RecordInstruction } from './recordProgram.js';
+import { conditionHolds, withBit, type RecordCondition, type RecordInstruction, type RecordOrigin } from './recordProgram.js';
 import { addOuter, applyIdeal, finishIdeal, MAX_IDEAL_BRANCHES, NEGLIGIBLE_BRANCH_WEIGHT, setIdealBranches, squaredNorm, type IdealRun, type IdealState } from './run.js';
 import { referenceKernels, type Kernels } from './kernels.js';
 import { createStateVector } from './stateVector.js';
@@ -27,26 +27,28 @@ export interface BranchEngine {
   prepare(n: number, instructions: readonly Instruction[]): (rho: DensityMatrix) => void;
 }
 
-/** A run of consecutive record instructions that act the same way on every branch they select. */
-type Segment =
-  | { kind: 'apply'; when: { condition: RecordCondition; holds: boolean } | undefined; instructions: Instruction[] }
-  | { kind: 'measure'; qubit: number; bit: number; zeroAsOne: number; oneAsZero: number };
+/** A run of consecutive record instructions that act the same way on every branch they select (origins[i] explains instructions[i]). */
+export type Segment =
+  | { kind: 'apply'; when: { condition: RecordCondition; holds: boolean } | undefined; instructions: Instruction[]; origins: RecordOrigin[] }
+  | Extract<RecordInstruction, { kind: 'measure' }>;
 
 /** Groups the program into segments: consecutive 'apply' items with the same selection share one segment (one fused plan). */
-function segments(program: readonly RecordInstruction[]): Segment[] {
+export function segments(program: readonly RecordInstruction[]): Segment[] {
   const out: Segment[] = [];
   let last: Extract<Segment, { kind: 'apply' }> | undefined;
   let lastKey = '';
   for (const ins of program) {
     if (ins.kind === 'measure') {
-      out.push({ kind: 'measure', qubit: ins.qubit, bit: ins.bit, zeroAsOne: ins.zeroAsOne, oneAsZero: ins.oneAsZero });
+      out.push(ins);
       last = undefined;
       continue;
     }
     const key = ins.when === undefined ? '*' : `${ins.when.holds ? '' : '!'}${ins.when.condition.map((t) => `${t.bit}=${t.value}`).join(',')}`;
-    if (last !== undefined && key === lastKey) last.instructions.push(ins.instruction);
-    else {
-      last = { kind: 'apply', when: ins.when, instructions: [ins.instruction] };
+    if (last !== undefined && key === lastKey) {
+      last.instructions.push(ins.instruction);
+      last.origins.push(ins.origin);
+    } else {
+      last = { kind: 'apply', when: ins.when, instructions: [ins.instruction], origins: [ins.origin] };
       lastKey = key;
       out.push(last);
     }
