@@ -159,17 +159,21 @@ function complexText(re: number, im: number): string {
 function renderSchedule(sim: Simulation, style: Style): string[] {
   const reg = sim.circuit.register;
   const lines = [style.bold(`Schedule (${sim.schedule.policy.toUpperCase()}, times in ns)`)];
-  lines.push(`  ${style.dim('step'.padEnd(6))}${style.dim('operation'.padEnd(14))}${style.dim('qubits'.padEnd(14))}${style.dim('start'.padStart(10))}${style.dim('end'.padStart(10))}`);
-  for (const it of sim.schedule.items) {
-    const op = it.op;
-    const bits = sim.circuit.bits ?? [];
+  const bits = sim.circuit.bits ?? [];
+  const names = sim.schedule.items.map(({ op }) => {
     let name = op.kind === 'gate' ? op.name : op.kind === 'channel' ? 'noise' : op.kind;
     if (op.kind === 'measure' && op.bit !== undefined) name += ` → ${bits[op.bit]}`;
     if ((op.kind === 'gate' || op.kind === 'reset' || op.kind === 'channel') && op.condition !== undefined) {
       name += ` if ${op.condition.terms.map((t) => `${bits[t.bit]}=${t.value}`).join(',')}`;
     }
-    lines.push(`  ${String(op.step + 1).padEnd(6)}${name.padEnd(Math.max(14, name.length + 1))}${op.qubits.map((q) => qubitName(q, reg)).join(' ').padEnd(14)}${num(it.start).padStart(10)}${num(it.end).padStart(10)}`);
-  }
+    return name;
+  });
+  const ow = Math.max(14, ...names.map((s) => s.length + 2));
+  lines.push(`  ${style.dim('step'.padEnd(6))}${style.dim('operation'.padEnd(ow))}${style.dim('qubits'.padEnd(14))}${style.dim('start'.padStart(10))}${style.dim('end'.padStart(10))}`);
+  sim.schedule.items.forEach((it, i) => {
+    const op = it.op;
+    lines.push(`  ${String(op.step + 1).padEnd(6)}${names[i]!.padEnd(ow)}${op.qubits.map((q) => qubitName(q, reg)).join(' ').padEnd(14)}${num(it.start).padStart(10)}${num(it.end).padStart(10)}`);
+  });
   lines.push('', style.bold('Idle windows (relaxation applies when the profile says idle: thermal)'));
   if (sim.schedule.idleWindows.length === 0) lines.push(style.dim('  none'));
   for (const w of sim.schedule.idleWindows) {
@@ -177,7 +181,6 @@ function renderSchedule(sim: Simulation, style: Style): string[] {
   }
   lines.push(`  ${style.dim(`total duration ${formatDuration(sim.schedule.duration)}`)}`);
   if (sim.circuit.bits !== null) {
-    const bits = sim.circuit.bits;
     lines.push('', style.bold('Classical dependencies (a measured bit feeds a conditioned step no earlier than its end + latency)'));
     if (sim.schedule.feeds.length === 0) lines.push(style.dim('  none'));
     for (const f of sim.schedule.feeds) {
