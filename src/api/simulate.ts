@@ -107,7 +107,7 @@ export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedu
         return 0;
     }
   };
-  return scheduleOperations(circuit.operations, circuit.register.n, durationOf, profile.schedule, profile.measureLatency);
+  return scheduleOperations(circuit.operations, circuit.register.n, durationOf, profile.schedule, { latency: profile.measureLatency });
 }
 
 /** Measured qubits, ascending: those named by `measure` steps, or all qubits when there is none; none in record mode. */

@@ -67,19 +67,22 @@ interface Constraint {
   readonly offset: number;
 }
 
-/**
- * Schedules `ops` on n qubits; `durationOf` gives each application's duration in ns and
- * `latency` the classical latency (ns) between a measurement and a step its bit conditions.
- */
+/** Options of scheduleOperations. */
+export interface ScheduleOptions {
+  /** Classical latency (ns) from a measurement's end to the earliest start of a step conditioned on its bit (record mode; default 0). */
+  readonly latency?: number;
+}
+
+/** Schedules `ops` on n qubits; `durationOf` gives each application's duration in ns. */
 export function scheduleOperations(
   ops: readonly Operation[],
   n: number,
   durationOf: (op: Operation) => number,
   policy: 'asap' | 'alap',
-  latency = 0,
+  options: ScheduleOptions = {},
 ): Schedule {
   const dur = ops.map((op) => (op.kind === 'barrier' ? 0 : durationOf(op)));
-  const { constraints, feeds } = classicalConstraints(ops, dur, latency);
+  const { constraints, feeds } = classicalConstraints(ops, dur, options.latency ?? 0);
   const times = policy === 'asap' ? asap(ops, n, dur, constraints) : alap(ops, n, dur, constraints);
   return { ...withIdleWindows(ops, n, times.start, times.end, times.total, policy), feeds };
 }
