@@ -3,11 +3,10 @@ import { fastKernels } from '../engine/fastKernels.js';
 import { referenceKernels, type Kernels } from '../engine/kernels.js';
 import type { DensityMatrix } from '../engine/layout.js';
 import { checkMemory, checkRecordMemory, defaultMemoryLimit, MemoryLimitError } from '../engine/memory.js';
-import { applyInstruction, MAX_IDEAL_BRANCHES, runIdeal, runNoisy } from '../engine/run.js';
-import { applyCompiled, createSharedDensityMatrix, runCompiled, THREADS_MIN_QUBITS } from '../engine/runCompiled.js';
-import { runBranches, runIdealBranches, segments, type BranchEngine, type BranchEnsemble, type IdealEnsemble } from '../engine/branches.js';
+import { MAX_IDEAL_BRANCHES, runIdeal, runNoisy } from '../engine/run.js';
+import { runCompiled, THREADS_MIN_QUBITS } from '../engine/runCompiled.js';
+import { fastBranchEngine, referenceBranchEngine, runBranches, runIdealBranches, segments, type BranchEnsemble, type IdealEnsemble } from '../engine/branches.js';
 import { maxBranches } from '../engine/recordProgram.js';
-import { createDensityMatrix } from '../engine/densityMatrix.js';
 import { densityMatrixBytes, stateVectorBytes } from '../engine/layout.js';
 import type { ThreadPool } from '../engine/threadPool.js';
 import { branchWeights, computeRecordFigures } from '../results/recordFigures.js';
@@ -196,15 +195,7 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
   if (fast && n >= WARM_MIN_QUBITS) warmKernels();
   const { schedule, program, problems } = prepare(loaded, options);
   if (program.record !== null) return simulateRecord(loaded, options, schedule, program, problems, fast ? pool : undefined, fast);
-  try {
-    checkMemory(n, idealStaysOnVectors(program), options.maxMemoryBytes ?? defaultMemoryLimit());
-  } catch (e) {
-    if (e instanceof MemoryLimitError) {
-      problems.error(circuit.qubitsAt, 'memory-limit', e.message);
-      problems.throwIfErrors();
-    }
-    throw e;
-  }
+  refuseOverMemory(circuit, problems, () => checkMemory(n, idealStaysOnVectors(program), options.maxMemoryBytes ?? defaultMemoryLimit()));
   let rho: DensityMatrix;
   let plan: Plan | undefined;
   let ideal: IdealState;
@@ -226,61 +217,8 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     observe,
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED } : {}),
   });
-  const labels = circuit.register.labels;
-  const result: RunResult = {
-    name: circuit.name,
-    file: circuit.file,
-    device: profile.name,
-    qubits: n,
-    ...(labels !== null ? { labels } : {}),
-    measured,
-    ...(labels !== null ? { measured_labels: measured.map((q) => labels[q]!) } : {}),
-    schedule: schedule.policy,
-    duration_ns: schedule.duration,
-    probabilities: figures.probabilities,
-    fidelity: figures.fidelity,
-    tvd: figures.tvd,
-    purity: figures.purity,
-    bloch: figures.bloch,
-    ...(figures.observables !== undefined ? { observables: figures.observables } : {}),
-    ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED, counts: figures.counts } : {}),
-    warnings: problems.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`),
-  };
+  const result = runResult(loaded, schedule, figures, measured, null, options, problems);
   return { circuit, profile, schedule, program, ...(plan !== undefined ? { plan } : {}), rho, ideal, result, warnings: problems.warnings };
-}
-
-/**
- * The branch engine of a run: the fast engine prepares each run of instructions as a fused,
- * compiled plan applied to shared-memory branches (threads within each branch); the
- * reference engine applies the instructions one by one with `kernels`.
- */
-function branchEngine(options: SimulateOptions, fast: boolean, pool: ThreadPool | undefined): BranchEngine {
-  if (fast) {
-    return {
-      allocate: (n) => {
-        const rho = createSharedDensityMatrix(n);
-        rho.data[0] = 0;
-        return rho;
-      },
-      initial: createSharedDensityMatrix,
-      prepare: (n, instructions) => {
-        const plan = compilePlan(buildPlan(n, instructions, { fuse: options.fuse !== false }));
-        return (rho) => applyCompiled(rho, plan, pool);
-      },
-    };
-  }
-  const kernels = options.kernels ?? referenceKernels;
-  return {
-    allocate: (n) => {
-      const rho = createDensityMatrix(n);
-      rho.data[0] = 0;
-      return rho;
-    },
-    initial: createDensityMatrix,
-    prepare: (_n, instructions) => (rho) => {
-      for (const ins of instructions) applyInstruction(rho, ins, kernels);
-    },
-  };
 }
 
 /** Record mode (format version 2, part B): the branch ensembles of the noisy, readout-free and ideal runs, and their figures. */
@@ -298,17 +236,10 @@ function simulateRecord(
   const record = program.record!;
   const bits = circuit.bits!;
   const branchCount = maxBranches(record.noisy);
-  try {
-    const idealPerBranch = Math.min(densityMatrixBytes(n), MAX_IDEAL_BRANCHES * stateVectorBytes(n));
-    checkRecordMemory(n, branchCount, idealPerBranch, options.maxMemoryBytes ?? defaultMemoryLimit());
-  } catch (e) {
-    if (e instanceof MemoryLimitError) {
-      problems.error(circuit.qubitsAt, 'memory-limit', e.message);
-      problems.throwIfErrors();
-    }
-    throw e;
-  }
-  const engine = branchEngine(options, fast, pool);
+  // an ideal record keeps at most MAX_IDEAL_BRANCHES state vectors before it becomes a density matrix
+  const idealPerBranch = Math.min(densityMatrixBytes(n), MAX_IDEAL_BRANCHES * stateVectorBytes(n));
+  refuseOverMemory(circuit, problems, () => checkRecordMemory(n, branchCount, idealPerBranch, options.maxMemoryBytes ?? defaultMemoryLimit()));
+  const engine = fast ? fastBranchEngine(options.fuse !== false, pool) : referenceBranchEngine(options.kernels ?? referenceKernels);
   const hasReadout = record.noisy.some((ins) => ins.kind === 'measure' && (ins.zeroAsOne !== 0 || ins.oneAsZero !== 0));
   // the readout-free run only feeds probabilities.noisy: keep its weights, free its branches
   const withoutReadout = hasReadout ? branchWeights(runBranches(n, bits.length, record.noisy, engine, { readout: false })) : undefined;
@@ -321,16 +252,31 @@ function simulateRecord(
     observe,
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED } : {}),
   });
+  const result = runResult(loaded, schedule, figures, [], bits, options, problems);
+  return { circuit, profile, schedule, program, rho, ideal, branches: { noisy, ideal: idealBranches }, result, warnings: problems.warnings };
+}
+
+/** The JSON object of a run; `bits` (record mode) adds the record's bit names after `measured`. */
+function runResult(
+  loaded: LoadedCircuit,
+  schedule: Schedule,
+  figures: Figures,
+  measured: readonly number[],
+  bits: readonly string[] | null,
+  options: SimulateOptions,
+  problems: ProblemList,
+): RunResult {
+  const { circuit, profile } = loaded;
   const labels = circuit.register.labels;
-  const result: RunResult = {
+  return {
     name: circuit.name,
     file: circuit.file,
     device: profile.name,
-    qubits: n,
+    qubits: circuit.register.n,
     ...(labels !== null ? { labels } : {}),
-    measured: [],
-    ...(labels !== null ? { measured_labels: [] } : {}),
-    bits,
+    measured,
+    ...(labels !== null ? { measured_labels: measured.map((q) => labels[q]!) } : {}),
+    ...(bits !== null ? { bits } : {}),
     schedule: schedule.policy,
     duration_ns: schedule.duration,
     probabilities: figures.probabilities,
@@ -342,7 +288,19 @@ function simulateRecord(
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED, counts: figures.counts } : {}),
     warnings: problems.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`),
   };
-  return { circuit, profile, schedule, program, rho, ideal, branches: { noisy, ideal: idealBranches }, result, warnings: problems.warnings };
+}
+
+/** Runs `check` (a memory estimate); a MemoryLimitError becomes an input error located at the register. */
+function refuseOverMemory(circuit: Circuit, problems: ProblemList, check: () => void): void {
+  try {
+    check();
+  } catch (e) {
+    if (e instanceof MemoryLimitError) {
+      problems.error(circuit.qubitsAt, 'memory-limit', e.message);
+      problems.throwIfErrors();
+    }
+    throw e;
+  }
 }
 
 /** Reads, validates and runs a circuit file (the one easy call). Throws InputError on bad input. */

@@ -5,14 +5,18 @@
  * then carry the same key (they differed only in the bit's overwritten value, which nothing
  * can read any more) are summed, which is exact.
  */
-import type { Instruction } from './instruction.js';
+import type { Instruction, Origin } from './instruction.js';
 import type { DensityMatrix, StateVector } from './layout.js';
 import { qubitMask } from './layout.js';
-import { conditionHolds, withBit, type RecordCondition, type RecordInstruction, type RecordOrigin } from './recordProgram.js';
-import { addOuter, applyIdeal, finishIdeal, MAX_IDEAL_BRANCHES, NEGLIGIBLE_BRANCH_WEIGHT, setIdealBranches, squaredNorm, type IdealRun, type IdealState } from './run.js';
+import { conditionHolds, withBit, type RecordCondition, type RecordInstruction } from './recordProgram.js';
+import { addOuter, applyIdeal, applyInstruction, finishIdeal, MAX_IDEAL_BRANCHES, NEGLIGIBLE_BRANCH_WEIGHT, setIdealBranches, squaredNorm, type IdealRun, type IdealState } from './run.js';
 import { referenceKernels, type Kernels } from './kernels.js';
 import { createStateVector } from './stateVector.js';
-import { traceOf } from './densityMatrix.js';
+import { createDensityMatrix, traceOf } from './densityMatrix.js';
+import { applyCompiled, createSharedDensityMatrix } from './runCompiled.js';
+import type { ThreadPool } from './threadPool.js';
+import { buildPlan } from '../plan/buildPlan.js';
+import { compilePlan } from '../plan/compilePlan.js';
 
 /** The branches of a run: record key → unnormalised ρ_r (Tr ρ_r = probability of record r). */
 export type BranchEnsemble = Map<string, DensityMatrix>;
@@ -27,9 +31,41 @@ export interface BranchEngine {
   prepare(n: number, instructions: readonly Instruction[]): (rho: DensityMatrix) => void;
 }
 
+/** The reference engine's branches: plain arrays, instructions applied one by one with `kernels`. */
+export function referenceBranchEngine(kernels: Kernels = referenceKernels): BranchEngine {
+  return {
+    allocate: (n) => zeroMatrix(createDensityMatrix(n)),
+    initial: createDensityMatrix,
+    prepare: (_n, instructions) => (rho) => {
+      for (const ins of instructions) applyInstruction(rho, ins, kernels);
+    },
+  };
+}
+
+/**
+ * The fast engine's branches: shared memory, each run of instructions prepared once as a fused
+ * (or, with fuse false, unfused) compiled plan and applied with `pool`'s threads on large registers.
+ */
+export function fastBranchEngine(fuse = true, pool?: ThreadPool): BranchEngine {
+  return {
+    allocate: (n) => zeroMatrix(createSharedDensityMatrix(n)),
+    initial: createSharedDensityMatrix,
+    prepare: (n, instructions) => {
+      const plan = compilePlan(buildPlan(n, instructions, { fuse }));
+      return (rho) => applyCompiled(rho, plan, pool);
+    },
+  };
+}
+
+/** |0…0⟩⟨0…0| turned into the zero matrix (its one nonzero entry cleared). */
+function zeroMatrix(rho: DensityMatrix): DensityMatrix {
+  rho.data[0] = 0;
+  return rho;
+}
+
 /** A run of consecutive record instructions that act the same way on every branch they select (origins[i] explains instructions[i]). */
 export type Segment =
-  | { kind: 'apply'; when: { condition: RecordCondition; holds: boolean } | undefined; instructions: Instruction[]; origins: RecordOrigin[] }
+  | { kind: 'apply'; when: { condition: RecordCondition; holds: boolean } | undefined; instructions: Instruction[]; origins: Origin[] }
   | Extract<RecordInstruction, { kind: 'measure' }>;
 
 /** Groups the program into segments: consecutive 'apply' items with the same selection share one segment (one fused plan). */

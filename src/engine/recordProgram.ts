@@ -1,4 +1,4 @@
-import type { Instruction } from './instruction.js';
+import type { Instruction, Origin } from './instruction.js';
 
 /**
  * A record-mode program (format version 2, part B): the engine's instructions plus two kinds
@@ -10,12 +10,6 @@ import type { Instruction } from './instruction.js';
 /** A condition on the record: every term's bit must read its value. */
 export type RecordCondition = readonly { readonly bit: number; readonly value: 0 | 1 }[];
 
-/** Why an instruction is there (step 0-based, −1 for idle windows; e.g. 'cx', 'thermal during cx'). */
-export interface RecordOrigin {
-  readonly step: number;
-  readonly what: string;
-}
-
 export type RecordInstruction =
   /**
    * An engine instruction on every branch (`when` absent), or only on the branches whose record
@@ -25,7 +19,7 @@ export type RecordInstruction =
       readonly kind: 'apply';
       readonly instruction: Instruction;
       readonly when?: { readonly condition: RecordCondition; readonly holds: boolean };
-      readonly origin: RecordOrigin;
+      readonly origin: Origin;
     }
   /**
    * Measurement of `qubit` into record bit `bit`: each branch splits by the true outcome m
@@ -38,7 +32,7 @@ export type RecordInstruction =
       readonly bit: number;
       readonly zeroAsOne: number;
       readonly oneAsZero: number;
-      readonly origin: RecordOrigin;
+      readonly origin: Origin;
     };
 
 /** The program of a record-mode run: m record bits and the noisy and ideal instruction lists. */

@@ -1,5 +1,5 @@
 import type { Circuit, Condition, NoiseOverride, Operation } from '../circuit/circuit.js';
-import type { Instruction } from '../engine/instruction.js';
+import type { Instruction, Origin } from '../engine/instruction.js';
 import type { RecordInstruction, RecordProgram } from '../engine/recordProgram.js';
 import { plainKinds, type NoiseKindsSpec } from '../format/noiseKindsSpec.js';
 import { ProblemList, type SourcePosition } from '../format/problem.js';
@@ -7,12 +7,7 @@ import { CustomChannelError, ErrorSolveError, gateNoise, idleChannel, type Qubit
 import type { NoiseProfile } from '../noise/profile.js';
 import type { IdleWindow, Schedule } from '../schedule/schedule.js';
 
-/** Where a noisy instruction comes from: the step (0-based; −1 for idle windows) and what it is. */
-export interface Origin {
-  readonly step: number;
-  /** e.g. 'cx', 'thermal during cx', 'idle 120 ns', 'depolarizing', 'reset'. */
-  readonly what: string;
-}
+export type { Origin } from '../engine/instruction.js';
 
 /**
  * A scheduled circuit with its noise, as instruction lists for the engine: the noisy run

@@ -1,16 +1,13 @@
 import * as math from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import { measureSplit, runBranches, runIdealBranches, type BranchEngine, type BranchEnsemble, type IdealEnsemble } from '../../src/engine/branches.js';
+import { fastBranchEngine, measureSplit, referenceBranchEngine, runBranches, runIdealBranches, type BranchEnsemble, type IdealEnsemble } from '../../src/engine/branches.js';
 import { createDensityMatrix } from '../../src/engine/densityMatrix.js';
 import type { Instruction } from '../../src/engine/instruction.js';
+import { ensembleToDensityMatrix } from '../../src/engine/run.js';
 import { RESET_KRAUS } from '../../src/engine/instruction.js';
-import { applyInstruction, ensembleToDensityMatrix } from '../../src/engine/run.js';
-import { applyCompiled, createSharedDensityMatrix } from '../../src/engine/runCompiled.js';
 import type { RecordCondition, RecordInstruction } from '../../src/engine/recordProgram.js';
 import { maxBranches } from '../../src/engine/recordProgram.js';
 import { fromRows, type CMatrix } from '../../src/linalg/cmatrix.js';
-import { buildPlan } from '../../src/plan/buildPlan.js';
-import { compilePlan } from '../../src/plan/compilePlan.js';
 import { fastKernels } from '../../src/engine/fastKernels.js';
 import { DENSE_AGREEMENT, denseChannel, denseReset, embed, maxDiffToMath } from './dense.js';
 import { mulberry32, randInt, randomKraus, randomTargets, randomUnitary } from './helpers.js';
@@ -27,31 +24,9 @@ import { mulberry32, randInt, randomKraus, randomTargets, randomUnitary } from '
  * of the ensemble in the issue; no fray code is used for the dense side.
  */
 
-const referenceEngine: BranchEngine = {
-  allocate: (n) => {
-    const rho = createDensityMatrix(n);
-    rho.data[0] = 0;
-    return rho;
-  },
-  initial: createDensityMatrix,
-  prepare: (_n, instructions) => (rho) => {
-    for (const ins of instructions) applyInstruction(rho, ins);
-  },
-};
-
+const referenceEngine = referenceBranchEngine();
 /** The fast engine's route: each run of instructions as a fused, compiled plan on shared-memory branches. */
-const fastEngine: BranchEngine = {
-  allocate: (n) => {
-    const rho = createSharedDensityMatrix(n);
-    rho.data[0] = 0;
-    return rho;
-  },
-  initial: createSharedDensityMatrix,
-  prepare: (n, instructions) => {
-    const plan = compilePlan(buildPlan(n, instructions, { fuse: true }));
-    return (rho) => applyCompiled(rho, plan);
-  },
-};
+const fastEngine = fastBranchEngine(true);
 
 function id2(): CMatrix {
   return fromRows([
@@ -145,6 +120,11 @@ function ensembleAsDense(n: number, m: number, branches: BranchEnsemble | Map<st
   return out;
 }
 
+/** Largest entry difference between an ensemble (as Σ_r |r⟩⟨r| ⊗ ρ_r) and the dense state. */
+function denseDiff(n: number, m: number, branches: BranchEnsemble | Map<string, Float64Array>, dense: math.Matrix): number {
+  return maxDiffToMath(ensembleAsDense(n, m, branches), 1 << (n + m), 1 << (n + m), dense);
+}
+
 function idealAsMatrices(ideal: IdealEnsemble): Map<string, Float64Array> {
   const out = new Map<string, Float64Array>();
   for (const [key, s] of ideal) {
@@ -198,11 +178,11 @@ describe('branch ensemble (src/engine/branches.ts) against a dense Σ_r |r⟩⟨
       for (const engine of [referenceEngine, fastEngine]) {
         const branches = runBranches(n, m, program, engine);
         expect(branches.size).toBeLessThanOrEqual(maxBranches(program));
-        expect(maxDiffToMath(ensembleAsDense(n, m, branches), 1 << (n + m), 1 << (n + m), dense)).toBeLessThan(DENSE_AGREEMENT);
+        expect(denseDiff(n, m, branches, dense)).toBeLessThan(DENSE_AGREEMENT);
       }
       // without readout error: the dense run with e0 = e1 = 0
       const plain = runBranches(n, m, program, referenceEngine, { readout: false });
-      expect(maxDiffToMath(ensembleAsDense(n, m, plain), 1 << (n + m), 1 << (n + m), denseRecordRun(n, m, program, false))).toBeLessThan(DENSE_AGREEMENT);
+      expect(denseDiff(n, m, plain, denseRecordRun(n, m, program, false))).toBeLessThan(DENSE_AGREEMENT);
     });
   }
 
@@ -214,7 +194,7 @@ describe('branch ensemble (src/engine/branches.ts) against a dense Σ_r |r⟩⟨
       const dense = denseRecordRun(n, m, program, false);
       for (const maxIdeal of [64, 1]) {
         const ideal = runIdealBranches(n, m, program, fastKernels, maxIdeal);
-        expect(maxDiffToMath(ensembleAsDense(n, m, idealAsMatrices(ideal)), 1 << (n + m), 1 << (n + m), dense)).toBeLessThan(DENSE_AGREEMENT);
+        expect(denseDiff(n, m, idealAsMatrices(ideal), dense)).toBeLessThan(DENSE_AGREEMENT);
       }
     });
   }
