@@ -1,7 +1,9 @@
 /**
  * fray's library API. One easy call — `simulate(path)` — and the stages underneath for
  * those who need them: read (loadCircuit / parseCircuitText) → schedule (scheduleCircuit)
- * → program (buildProgram) → engine (runNoisy / runIdeal) → results (computeFigures).
+ * → program (buildProgram) → engine (runNoisy / runIdeal) → results (computeFigures); in
+ * record mode (mid-circuit measurement) the engine step is runBranches / runIdealBranches and
+ * the results step computeRecordFigures.
  * Conventions (bit order, layouts, fidelity definitions) are stated in src/engine/layout.ts,
  * src/linalg/superoperator.ts and the README.
  */
@@ -11,16 +13,20 @@ export { loadCircuit, parseCircuitText, parseProfileText } from './api/loadCircu
 export type { LoadedCircuit, LoadOptions } from './api/loadCircuit.js';
 export { InputError, ProblemList, formatProblem } from './format/problem.js';
 export type { Problem, SourcePosition } from './format/problem.js';
-export type { Circuit, Operation, Register } from './circuit/circuit.js';
+export type { Circuit, Operation, Register, Condition, ConditionTerm } from './circuit/circuit.js';
 export { BUILTIN_GATES } from './circuit/gates.js';
 export type { NoiseProfile, QubitNoise, GateEntry } from './noise/profile.js';
-export type { Schedule, TimedOperation, IdleWindow } from './schedule/schedule.js';
+export type { Schedule, TimedOperation, IdleWindow, Feed } from './schedule/schedule.js';
 export { buildProgram } from './program/program.js';
 export type { Program, Origin } from './program/program.js';
 export { runNoisy, runIdeal } from './engine/run.js';
 export type { IdealState } from './engine/run.js';
 export type { DensityMatrix, StateVector } from './engine/layout.js';
 export type { Instruction } from './engine/instruction.js';
+export { runBranches, runIdealBranches, referenceBranchEngine, fastBranchEngine } from './engine/branches.js';
+export type { BranchEnsemble, IdealEnsemble, BranchEngine } from './engine/branches.js';
+export type { RecordProgram, RecordInstruction, RecordCondition } from './engine/recordProgram.js';
+export { computeRecordFigures } from './results/recordFigures.js';
 export { computeFigures } from './results/report.js';
 export type { Figures } from './results/report.js';
 export { stateFidelity, classicalFidelity, totalVariationDistance, purity } from './results/fidelity.js';

@@ -186,3 +186,55 @@ ${measureSteps}`;
     expect(v2.duration_ns).toBe(v1.duration_ns);
   });
 });
+
+describe('timing in record mode (the issue\'s "what happens")', () => {
+  // Amplitude damping of an excited qubit for τ leaves P(1) = e^{−τ/T1} (definition of T1, common practice).
+  const failing = (idle: 'thermal' | 'none') => `qubits: 2
+noise:
+  qubits:
+    1: { t1: 20us, t2: 30us }
+  gates:
+    all: { duration: 0ns }
+    x 1: { duration: 2us, thermal: false }
+  idle: ${idle}
+steps:
+  - x: 1
+  - measure: 0
+    into: m
+  - x: 1
+    if: m
+observe: [IZ]
+`;
+  it('where the condition fails, the step is replaced by relaxation for its duration under idle: thermal', () => {
+    // m reads 0 in every branch, so the x (2 µs, no relaxation of its own) never acts; qubit 1 relaxes for 2 µs
+    const r = sim(failing('thermal')).result;
+    expect(Math.abs((1 - r.observables!['IZ']!.noisy) / 2 - Math.exp(-2 / 20))).toBeLessThan(EXACT);
+  });
+
+  it('… and by nothing under idle: none', () => {
+    const r = sim(failing('none')).result;
+    expect(Math.abs(r.observables!['IZ']!.noisy - -1)).toBeLessThan(EXACT);
+  });
+
+  it('a measured qubit is not frozen: it relaxes until the circuit ends', () => {
+    // qubit 0 excited and measured at t = 0 (measurement of 0 ns); qubit 1 idles 10 µs, so the circuit
+    // lasts 10 µs and qubit 0 decays for all of it: P(1) = e^{−10/25} in the record-1 branch.
+    const r = sim(`qubits: 2
+noise:
+  qubits: { all: { t1: 25us, t2: 40us } }
+  gates: { all: { duration: 0ns } }
+steps:
+  - x: 0
+  - measure: 0
+    into: m
+  - idle: 1
+    for: 10us
+  - measure: 1
+    into: late
+observe: [ZI]
+`).result;
+    expect(r.duration_ns).toBe(10_000);
+    expect(Math.abs((1 - r.observables!['ZI']!.noisy) / 2 - Math.exp(-10 / 25))).toBeLessThan(EXACT);
+    expect(Math.abs(r.probabilities.measured['10']! - 1)).toBeLessThan(EXACT);
+  });
+});
