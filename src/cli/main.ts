@@ -89,8 +89,8 @@ function buildProgram(io: CliIO): Command {
     .option('--seed <s>', 'seed of the shot sampler (default 1); the same seed gives the same counts everywhere', parseSeed)
     .addOption(new Option('--observe <pauli...>', 'report ⟨P⟩ for Pauli strings, qubit 0 leftmost (repeatable or comma-separated), e.g. --observe ZZI,XXX'))
     .option('--top <k>', 'how many outcomes the report lists (default 8)', parseTop, 8)
-    .option('--state', 'print per-qubit Bloch vectors (and ρ for up to 3 qubits)')
-    .option('--schedule', 'print the time schedule and idle windows')
+    .option('--state', 'print per-qubit Bloch vectors (and ρ for up to 3 qubits); in record mode each branch\'s weight')
+    .option('--schedule', 'print the time schedule and idle windows; in record mode which measurement feeds which step')
     .option('--max-memory <size>', 'refuse runs needing more memory than this, e.g. 2GiB (default: half the machine)')
     .option('--plan', 'print the plan of kernel calls (what is fused into each pass over the density matrix) instead of running')
     .option('--threads <n>', 'threads sharing each pass on 9+ qubits (default: the machine\'s cores; 1 = off)', parseThreads)
@@ -103,6 +103,7 @@ function buildProgram(io: CliIO): Command {
         '  fray run circuits/ghz5.yaml --device circuits/devices/bench-line5.yaml --top 4\n' +
         '  fray run circuits/ramsey-echo.yaml --set detune=0.025 --schedule\n' +
         '  fray run circuits/ghz5.yaml --shots 1000 --seed 7 --observe ZZIII,XXXXX --json\n' +
+        '  fray run circuits/teleport.yaml --schedule --state   mid-circuit measurement and feed-forward\n' +
         '  fray run circuits/bench/layers10x20.yaml --plan      what each pass over ρ fuses\n' +
         '  fray run circuits/bench/layers10x20.yaml --threads 1 one thread (or --no-fuse: one pass per operation)\n' +
         '\nReport figures: state fidelity is Uhlmann–Jozsa, squared; classical fidelity and total\n' +
