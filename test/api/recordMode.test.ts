@@ -238,3 +238,20 @@ observe: [ZI]
     expect(Math.abs(r.probabilities.measured['10']! - 1)).toBeLessThan(EXACT);
   });
 });
+
+describe('record order', () => {
+  const text = (bits: string) => `qubits: 2
+${bits}steps:
+  - x: 0
+  - measure: [0, 1]
+    into: [one, zero]
+`;
+  it('follows the first writes without bits:, and bits: when given (character i = bit i)', () => {
+    const plain = sim(text('')).result;
+    expect(plain.bits).toEqual(['one', 'zero']);
+    expect(Math.abs(plain.probabilities.ideal['10']! - 1)).toBeLessThan(EXACT);
+    const declared = sim(text('bits: [zero, one]\n')).result;
+    expect(declared.bits).toEqual(['zero', 'one']);
+    expect(Math.abs(declared.probabilities.ideal['01']! - 1)).toBeLessThan(EXACT);
+  });
+});
