@@ -79,7 +79,7 @@ export function readCircuit(
   }
 
   if (register === undefined || se === undefined) return undefined;
-  const record = new RecordReader();
+  const record = new RecordReader(se.value);
   const read = readSteps(se.value, { register, params, gates, channels }, problems, record);
   const { bits, operations } = record.finish(entryOf(map, 'bits'), read, problems);
   if (!problems.ok) return undefined;

@@ -20,6 +20,22 @@ export function hasInto(steps: YNode): boolean {
 
 /** Reads `into:` and `if:` of the steps in order, remembering which bits earlier steps wrote. */
 export class RecordReader {
+  /** Bit name → the first step (1-based) whose `into` names it, from a look ahead over all steps (for messages). */
+  private readonly anyWrite = new Map<string, { step: number; line: number }>();
+
+  /** `steps` (when given) is looked over once so that a read before a bit's first write can say where that write is. */
+  constructor(steps?: YNode) {
+    if (steps?.kind !== 'seq') return;
+    steps.items.forEach((item, i) => {
+      if (item.kind !== 'map') return;
+      const into = item.entries.find((e) => e.key === 'into');
+      if (into === undefined) return;
+      for (const n of into.value.kind === 'seq' ? into.value.items : [into.value]) {
+        if (n.kind === 'scalar' && typeof n.value === 'string' && !this.anyWrite.has(n.value)) this.anyWrite.set(n.value, { step: i + 1, line: n.at.line });
+      }
+    });
+  }
+
   /** Bit name → index in order of first write. */
   private readonly written = new Map<string, number>();
   /** Position of each bit's first write, in order of first write. */
@@ -97,6 +113,12 @@ export class RecordReader {
         continue;
       }
       const bit = this.written.get(name);
+      const later = this.anyWrite.get(name);
+      if (bit === undefined && later !== undefined) {
+        problems.error(key.at, 'unknown-bit', `${where}: 'if' reads bit '${name}', which is first written by step ${later.step} (line ${later.line}), after this step; a condition reads only bits that earlier steps wrote`);
+        ok = false;
+        continue;
+      }
       if (bit === undefined) {
         const near = suggest(name, [...this.written.keys()]);
         const hint = near !== undefined ? `did you mean '${near}'?` : this.written.size > 0 ? `written so far: ${[...this.written.keys()].join(', ')}` : `no earlier step measures into a bit`;

@@ -42,12 +42,12 @@ const cases: { name: string; text: string; errors: string[] }[] = [
   {
     name: "'if' on a bit written only later",
     text: 'qubits: 2\nsteps:\n  - x: 1\n    if: m\n  - measure: 0\n    into: m\n',
-    errors: ["c.yaml:4:9: step 1 (x): 'if' reads bit 'm', which no earlier step writes; no earlier step measures into a bit"],
+    errors: ["c.yaml:4:9: step 1 (x): 'if' reads bit 'm', which is first written by step 2 (line 6), after this step; a condition reads only bits that earlier steps wrote"],
   },
   {
     name: "'if' map with one bit written only later",
     text: 'qubits: 2\nsteps:\n  - measure: 0\n    into: a\n  - x: 1\n    if: { a: 1, b: 0 }\n  - measure: 1\n    into: b\n',
-    errors: ["c.yaml:6:17: step 2 (x): 'if' reads bit 'b', which no earlier step writes; did you mean 'a'?"],
+    errors: ["c.yaml:6:17: step 2 (x): 'if' reads bit 'b', which is first written by step 3 (line 8), after this step; a condition reads only bits that earlier steps wrote"],
   },
   {
     name: "'if' value other than 0 or 1",
