@@ -21,10 +21,10 @@ export interface StepContext {
 
 /**
  * Reads `steps:` into operations in program order (one per application). Bits named by
- * `into`/`if` are numbered in order of first write; `record` (when given) is the reader that
- * saw them, whose finish() maps them to the record's order.
+ * `into`/`if` are numbered in order of first write by `record`, whose finish()
+ * maps them to the record's order.
  */
-export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList, record: RecordReader = new RecordReader()): Operation[] {
+export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList, record: RecordReader): Operation[] {
   const ops: Operation[] = [];
   // Record mode (any `into`): no measurement is terminal.
   const recordMode = hasInto(node);
