@@ -239,7 +239,7 @@ function simulateRecord(
   // an ideal record keeps at most MAX_IDEAL_BRANCHES state vectors before it becomes a density matrix
   const idealPerBranch = Math.min(densityMatrixBytes(n), MAX_IDEAL_BRANCHES * stateVectorBytes(n));
   refuseOverMemory(circuit, problems, () => checkRecordMemory(n, branchCount, idealPerBranch, options.maxMemoryBytes ?? defaultMemoryLimit()));
-  const engine = fast ? fastBranchEngine(options.fuse !== false, pool) : referenceBranchEngine(options.kernels ?? referenceKernels);
+  const engine = fast ? fastBranchEngine({ fuse: options.fuse !== false }, pool) : referenceBranchEngine(options.kernels ?? referenceKernels);
   const hasReadout = record.noisy.some((ins) => ins.kind === 'measure' && (ins.zeroAsOne !== 0 || ins.oneAsZero !== 0));
   // the readout-free run only feeds probabilities.noisy: keep its weights, free its branches
   const withoutReadout = hasReadout ? branchWeights(runBranches(n, bits.length, record.noisy, engine, { readout: false })) : undefined;

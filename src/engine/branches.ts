@@ -15,7 +15,7 @@ import { createStateVector } from './stateVector.js';
 import { createDensityMatrix, traceOf } from './densityMatrix.js';
 import { applyCompiled, createSharedDensityMatrix } from './runCompiled.js';
 import type { ThreadPool } from './threadPool.js';
-import { buildPlan } from '../plan/buildPlan.js';
+import { buildPlan, type BuildPlanOptions } from '../plan/buildPlan.js';
 import { compilePlan } from '../plan/compilePlan.js';
 
 /** The branches of a run: record key → unnormalised ρ_r (Tr ρ_r = probability of record r). */
@@ -43,16 +43,16 @@ export function referenceBranchEngine(kernels: Kernels = referenceKernels): Bran
 }
 
 /**
- * The fast engine's branches: shared memory, each run of instructions prepared once as a fused
- * (or, with fuse false, unfused) compiled plan and applied with `pool`'s threads on large registers.
+ * The fast engine's branches: shared memory, each run of instructions prepared once as a compiled
+ * plan (fused unless `plan.fuse` is false) and applied with `pool`'s threads on large registers.
  */
-export function fastBranchEngine(fuse = true, pool?: ThreadPool): BranchEngine {
+export function fastBranchEngine(plan: BuildPlanOptions = {}, pool?: ThreadPool): BranchEngine {
   return {
     allocate: (n) => zeroMatrix(createSharedDensityMatrix(n)),
     initial: createSharedDensityMatrix,
     prepare: (n, instructions) => {
-      const plan = compilePlan(buildPlan(n, instructions, { fuse }));
-      return (rho) => applyCompiled(rho, plan, pool);
+      const compiled = compilePlan(buildPlan(n, instructions, plan));
+      return (rho) => applyCompiled(rho, compiled, pool);
     },
   };
 }

@@ -26,7 +26,7 @@ import { mulberry32, randInt, randomKraus, randomTargets, randomUnitary } from '
 
 const referenceEngine = referenceBranchEngine();
 /** The fast engine's route: each run of instructions as a fused, compiled plan on shared-memory branches. */
-const fastEngine = fastBranchEngine(true);
+const fastEngine = fastBranchEngine({ fuse: true });
 
 function id2(): CMatrix {
   return fromRows([
