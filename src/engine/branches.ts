@@ -1,9 +1,9 @@
 /**
  * The branch ensemble of a record-mode run (./recordProgram.ts): Σ_r |r⟩⟨r| ⊗ ρ_r held as one
  * unnormalised density matrix per record r with non-zero weight, keyed by the bits' current
- * values. A measurement splits every branch by outcome and recorded value; branches that
- * then carry the same key (they differed only in the bit's overwritten value, which nothing
- * can read any more) are summed, which is exact.
+ * values. A measurement of bit b first sums the branches that differ only in b's old value
+ * (nothing can read it any more, so this is exact), then splits every branch by outcome and
+ * recorded value.
  */
 import type { Instruction, Origin } from './instruction.js';
 import type { DensityMatrix, StateVector } from './layout.js';
@@ -118,18 +118,23 @@ export function runBranches(n: number, m: number, program: readonly RecordInstru
     }
     const e0 = readout ? seg.zeroAsOne : 0;
     const e1 = readout ? seg.oneAsZero : 0;
-    const next: BranchEnsemble = new Map();
-    const add = (key: string, rho: DensityMatrix): void => {
-      if (!(traceOf(rho) > NEGLIGIBLE_BRANCH_WEIGHT)) return;
-      const there = next.get(key);
-      if (there === undefined) next.set(key, rho);
+    // Forget b's old value first: branches that differed only in it are summed (nothing can read
+    // it any more; the split below is linear, so this equals summing after the split). The
+    // merged branches then split without meeting each other: at most 2^w matrices are alive.
+    const merged: BranchEnsemble = new Map();
+    for (const [key, rho] of branches) {
+      const k = withBit(key, seg.bit, 0);
+      const there = merged.get(k);
+      if (there === undefined) merged.set(k, rho);
       else addInto(there, rho);
-    };
+    }
+    branches = merged;
+    const next: BranchEnsemble = new Map();
     for (const [key, rho] of branches) {
       const one = engine.allocate(n);
       measureSplit(rho, one, seg.qubit, e0, e1);
-      add(withBit(key, seg.bit, 0), rho);
-      add(withBit(key, seg.bit, 1), one);
+      if (traceOf(rho) > NEGLIGIBLE_BRANCH_WEIGHT) next.set(key, rho);
+      if (traceOf(one) > NEGLIGIBLE_BRANCH_WEIGHT) next.set(withBit(key, seg.bit, 1), one);
     }
     branches = next;
   }

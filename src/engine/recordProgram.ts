@@ -56,12 +56,12 @@ export function withBit(key: string, bit: number, value: 0 | 1): string {
 }
 
 /**
- * Most branches a record program can hold at once: 2^w for the w distinct bits it writes
- * (bits not yet written read '0' in every branch, and a write merges the branches that
- * differed only in the old value), plus the one a measurement allocates while splitting.
+ * Most branch matrices a record program has alive at once: 2^w for the w distinct bits it
+ * writes. Bits not yet written read '0' in every branch, and a measurement of bit b first sums
+ * the branches that differ only in b and then splits each of those (at most 2^(w−1)) in two.
  */
 export function maxBranches(program: readonly RecordInstruction[]): number {
   const written = new Set<number>();
   for (const ins of program) if (ins.kind === 'measure') written.add(ins.bit);
-  return Math.pow(2, written.size) + (written.size > 0 ? 1 : 0);
+  return Math.pow(2, written.size);
 }

@@ -39,14 +39,14 @@ describe('fray run in record mode', () => {
   });
 
   it('refuses before allocating when the branches would not fit, counting them', async () => {
-    // 12 distinct bits: up to 2^12 + 1 branches of a 4-qubit density matrix (4 KiB each) plus their sum
+    // 12 distinct bits: up to 2^12 branches of a 4-qubit density matrix (4 KiB each) plus their sum
     const steps = Array.from({ length: 12 }, (_, i) => `  - h: ${i % 4}\n  - measure: ${i % 4}\n    into: b${i}\n`).join('');
     const file = tempFile('many.yaml', `qubits: 4\nsteps:\n${steps}`);
     const r = await fray('run', file, '--max-memory', '40MiB');
     expect(r.code).toBe(2);
     expect(r.err).toMatch(LOCATED);
-    expect(r.err).toContain('with up to 4097 record branches need about');
+    expect(r.err).toContain('with up to 4096 record branches need about');
     expect(r.err).toContain('record into fewer distinct bits');
-    expect(estimateRecordRunBytes(4, 4097, 0)).toBe(4098 * 16 * 256 + RUN_OVERHEAD_BYTES);
+    expect(estimateRecordRunBytes(4, 4096, 0)).toBe(4097 * 16 * 256 + RUN_OVERHEAD_BYTES);
   });
 });

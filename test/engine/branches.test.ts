@@ -225,6 +225,6 @@ describe('branch ensemble (src/engine/branches.ts) against a dense Σ_r |r⟩⟨
     program.push({ kind: 'apply', instruction: { op: 'unitary', qubits: [0], matrix: id2() }, origin });
     const branches = runBranches(1, 1, program, referenceEngine);
     expect([...branches.keys()].sort()).toEqual(['0', '1']);
-    expect(maxBranches(program)).toBe(3);
+    expect(maxBranches(program)).toBe(2);
   });
 });
