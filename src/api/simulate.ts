@@ -17,10 +17,13 @@ import { compilePlan } from '../plan/compilePlan.js';
 import type { Plan, PlannedSegment } from '../plan/plan.js';
 import { InputError, ProblemList, type Problem } from '../format/problem.js';
 import type { NoiseProfile } from '../noise/profile.js';
-import { buildProgram, type Program } from '../program/program.js';
+import { buildProgram, hasDrift, type Program } from '../program/program.js';
 import type { IdealState } from '../results/fidelity.js';
 import { computeFigures, DEFAULT_SEED, type Figures } from '../results/report.js';
 import { scheduleOperations, type Schedule } from '../schedule/schedule.js';
+import { deviceOperations } from '../schedule/deviceOperations.js';
+import { warnOffMap } from '../noise/couplingMap.js';
+import { warnEntryFallback } from '../noise/entryFallback.js';
 import { loadCircuit, type LoadedCircuit, type LoadOptions } from './loadCircuit.js';
 import { pauliStringProblem } from '../circuit/pauliString.js';
 
@@ -90,7 +93,7 @@ export interface Simulation {
   readonly warnings: readonly Problem[];
 }
 
-/** Schedules a loaded circuit with its profile's policy and durations. */
+/** Schedules a loaded circuit with its profile's policy, durations and readout timing (split composites as their parts). */
 export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedule {
   const durationOf = (op: Operation): number => {
     switch (op.kind) {
@@ -106,7 +109,10 @@ export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedu
         return 0;
     }
   };
-  return scheduleOperations(circuit.operations, circuit.register.n, durationOf, profile.schedule, { latency: profile.measureLatency });
+  return scheduleOperations(deviceOperations(circuit.operations, profile), circuit.register.n, durationOf, profile.schedule, {
+    simultaneousMeasure: profile.simultaneousMeasure,
+    latency: profile.measureLatency,
+  });
 }
 
 /** Measured qubits, ascending: those named by `measure` steps, or all qubits when there is none; none in record mode. */
@@ -158,6 +164,9 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
     if (bad !== undefined) problems.error(circuit.qubitsAt, 'bad-pauli', `--observe ${p}: ${bad}`);
   }
   const schedule = scheduleCircuit(circuit, profile);
+  const ops = schedule.items.map((it) => it.op);
+  warnEntryFallback(ops, circuit, profile, problems);
+  warnOffMap(schedule, profile.couplings, circuit.register, problems);
   const program = buildProgram(circuit, profile, schedule, problems);
   problems.throwIfErrors();
   return { schedule, program, problems };
@@ -166,13 +175,13 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
 /** The plan of kernel calls the fast engine would run for a loaded circuit (nothing is simulated). Throws InputError on bad input. */
 export function planLoaded(loaded: LoadedCircuit, options: SimulateOptions = {}): PlannedRun {
   const { schedule, program, problems } = prepare(loaded, options);
-  const fuse = options.fuse !== false;
-  const plan = buildPlan(program.n, program.noisy, { fuse });
+  const planOptions = { fuse: options.fuse !== false, keepDiagonal: hasDrift(loaded.profile) };
+  const plan = buildPlan(program.n, program.noisy, planOptions);
   if (program.record === null) return { schedule, program, plan, problems };
   const planned = segments(program.record.noisy).map((seg): PlannedSegment =>
     seg.kind === 'measure'
       ? { kind: 'measure', qubit: seg.qubit, bit: seg.bit }
-      : { kind: 'apply', ...(seg.when !== undefined ? { when: seg.when } : {}), plan: buildPlan(program.n, seg.instructions, { fuse }), origins: seg.origins },
+      : { kind: 'apply', ...(seg.when !== undefined ? { when: seg.when } : {}), plan: buildPlan(program.n, seg.instructions, planOptions), origins: seg.origins },
   );
   return { schedule, program, plan, segments: planned, bits: loaded.circuit.bits ?? [], problems };
 }
@@ -204,7 +213,7 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     rho = runNoisy(n, program.noisy, kernels);
     ideal = runIdeal(n, program.ideal, kernels);
   } else {
-    plan = buildPlan(n, program.noisy, { fuse: options.fuse !== false });
+    plan = buildPlan(n, program.noisy, { fuse: options.fuse !== false, keepDiagonal: hasDrift(profile) });
     rho = runCompiled(compilePlan(plan), pool);
     ideal = runIdeal(n, program.ideal, fastKernels);
   }
@@ -239,7 +248,7 @@ function simulateRecord(
   // an ideal record keeps at most MAX_IDEAL_BRANCHES state vectors before it becomes a density matrix
   const idealPerBranch = Math.min(densityMatrixBytes(n), MAX_IDEAL_BRANCHES * stateVectorBytes(n));
   refuseOverMemory(circuit, problems, () => checkRecordMemory(n, branchCount, idealPerBranch, options.maxMemoryBytes ?? defaultMemoryLimit()));
-  const engine = fast ? fastBranchEngine({ fuse: options.fuse !== false }, pool) : referenceBranchEngine(options.kernels ?? referenceKernels);
+  const engine = fast ? fastBranchEngine({ fuse: options.fuse !== false, keepDiagonal: hasDrift(profile) }, pool) : referenceBranchEngine(options.kernels ?? referenceKernels);
   const hasReadout = record.noisy.some((ins) => ins.kind === 'measure' && (ins.zeroAsOne !== 0 || ins.oneAsZero !== 0));
   // the readout-free run only feeds probabilities.noisy: keep its weights, free its branches
   const withoutReadout = hasReadout ? branchWeights(runBranches(n, bits.length, record.noisy, engine, { readout: false })) : undefined;

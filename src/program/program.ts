@@ -1,11 +1,13 @@
 import type { Circuit, Condition, NoiseOverride, Operation } from '../circuit/circuit.js';
 import type { Instruction, Origin } from '../engine/instruction.js';
 import type { RecordInstruction, RecordProgram } from '../engine/recordProgram.js';
-import { plainKinds, type NoiseKindsSpec } from '../format/noiseKindsSpec.js';
+import { misplacedZz, plainKinds, type NoiseKindsSpec } from '../format/noiseKindsSpec.js';
 import { ProblemList, type SourcePosition } from '../format/problem.js';
 import { CustomChannelError, ErrorSolveError, gateNoise, idleChannel, type QubitDecay } from '../noise/gateNoise.js';
+import { detuningAngle, zRotation, zzAngle, zzRotation } from '../noise/coherent.js';
 import type { NoiseProfile } from '../noise/profile.js';
-import type { IdleWindow, Schedule } from '../schedule/schedule.js';
+import type { IdleWindow, Schedule, TimedOperation } from '../schedule/schedule.js';
+import { buildTimeline } from '../schedule/timeline.js';
 
 export type { Origin } from '../engine/instruction.js';
 
@@ -25,12 +27,28 @@ export interface Program {
   readonly record: RecordProgram | null;
 }
 
+/** True when the profile has an always-on drift term (a detuning, or a zz strength on a coupled pair). */
+export function hasDrift(profile: NoiseProfile): boolean {
+  return profile.qubits.some((q) => q.detuning !== 0) || (profile.couplings ?? []).some((c) => c.zz !== 0);
+}
+
 /**
- * Builds the instruction lists. Channels on disjoint qubits commute, so emitting every
- * operation in program order, each preceded by the idle windows that end at its start on
- * its own qubits, reproduces the timed evolution exactly. In record mode the same holds for
- * measurements (an instrument on its own qubit) and conditioned steps: a bit's reads and
- * writes are in program order, and the schedule never depends on outcomes.
+ * Builds the instruction lists.
+ *
+ * With drift, the noisy list walks the event timeline (src/schedule/timeline.ts): per event,
+ * the drift of the segment before it (diagonal unitaries), the idle relaxation of that segment,
+ * then the operations starting at the event.
+ *
+ * Without drift the timeline's steps 1 and 2 reduce to each qubit's whole idle windows (relaxation
+ * is a semigroup, and channels on disjoint qubits commute), so the list is emitted in program order,
+ * each operation preceded by the idle windows that end at its start on its own qubits: the same
+ * evolution, and exactly version 1's instruction list (its outputs stay bit-for-bit the same).
+ *
+ * Record mode: a mid-circuit measurement is an operation of the timeline like any other (an
+ * instrument on its own qubit, applied whole at its start, then relaxation for its duration);
+ * a conditioned step acts where its condition holds and relaxes where it fails. Program order
+ * is consistent with the timeline for the record too: a bit's reads and writes are in program
+ * order and start in that order (src/schedule/schedule.ts), and the schedule never depends on outcomes.
  */
 export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: Schedule, problems: ProblemList): Program {
   const n = circuit.register.n;
@@ -84,6 +102,12 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
     thermal: boolean,
     kinds: NoiseKindsSpec,
   ): void => {
+    const zzAt = misplacedZz(kinds, k);
+    if (zzAt !== undefined) {
+      // reachable when a step's noise with zz applies to the parts of a split 2-qubit composite
+      problems.error(zzAt, 'zz-arity', `${label}: 'zz' of 'coherent' is a 2-qubit rotation, and this application acts on ${k} qubit${k === 1 ? '' : 's'}`);
+      return;
+    }
     try {
       const gn = gateNoise({
         k,
@@ -95,7 +119,10 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
       });
       if (gn.warning !== undefined) warnOnce(kinds.error?.at ?? op.at, 'error-below-coherence-limit', `${label}: ${gn.warning}`);
       for (const c of gn.channels) {
-        pushNoisy({ op: 'channel', qubits: c.targets.map((t) => qubits[t]!), kraus: c.kraus }, { step: op.step, what: c.source === 'thermal' ? `thermal during ${label}` : c.source });
+        const on = c.targets.map((t) => qubits[t]!);
+        const origin = { step: op.step, what: c.source === 'thermal' ? `thermal during ${label}` : c.source };
+        if (c.source === 'coherent') pushNoisy({ op: 'unitary', qubits: on, matrix: c.kraus[0]! }, origin);
+        else pushNoisy({ op: 'channel', qubits: on, kraus: c.kraus }, origin);
       }
     } catch (e) {
       if (e instanceof ErrorSolveError) {
@@ -108,8 +135,7 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
   const kindsOf = (override: NoiseOverride | undefined, fallback: NoiseKindsSpec): NoiseKindsSpec =>
     override !== undefined ? override.kinds : fallback;
 
-  for (const item of schedule.items) {
-    for (const w of item.idleBefore) emitIdle(w);
+  const emitOperation = (item: TimedOperation): void => {
     const op = item.op;
     const stepName = `step ${op.step + 1}`;
     const condition = op.kind === 'gate' || op.kind === 'reset' || op.kind === 'channel' ? op.condition : undefined;
@@ -154,8 +180,59 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
       for (const q of op.qubits) emitThermal(op.step, q, item.end - item.start, `idle during ${stepName} (condition fails)`);
     }
     when = undefined;
+  };
+  const recordProgram = (): RecordProgram | null => (recordMode ? { bits: circuit.bits!.length, noisy: recNoisy, ideal: recIdeal } : null);
+
+  if (!hasDrift(profile)) {
+    for (const item of schedule.items) {
+      for (const w of item.idleBefore) emitIdle(w);
+      emitOperation(item);
+    }
+    for (const w of schedule.trailingIdle) emitIdle(w);
+    return { n, noisy, origins, ideal, record: recordProgram() };
   }
-  for (const w of schedule.trailingIdle) emitIdle(w);
-  const record: RecordProgram | null = recordMode ? { bits: circuit.bits!.length, noisy: recNoisy, ideal: recIdeal } : null;
-  return { n, noisy, origins, ideal, record };
+
+  // The event timeline. The drift terms of one segment commute with each other, so their order is
+  // free; it is chosen for fusion (src/plan/fuseInstructions.ts): first the pairs whose qubits were
+  // last touched by the same operation (their rzz merges into its group), last the pairs whose
+  // qubits are next touched by the same operation (their rzz opens the group that operation joins),
+  // the rest in between (diagonal groups that the plan batches).
+  const timeline = buildTimeline(schedule, n);
+  const lastOp: (TimedOperation | undefined)[] = new Array<TimedOperation | undefined>(n).fill(undefined);
+  const upcoming: TimedOperation[][] = Array.from({ length: n }, () => []);
+  for (const ev of timeline.events) for (const i of ev.starts) for (const q of schedule.items[i]!.op.qubits) upcoming[q]!.push(schedule.items[i]!);
+  const nextIndex = new Array<number>(n).fill(0);
+  const pairs = (profile.couplings ?? []).filter((c) => c.zz !== 0);
+  const rank = (c: { a: number; b: number }): number => {
+    if (lastOp[c.a] !== undefined && lastOp[c.a] === lastOp[c.b]) return 0;
+    const na = upcoming[c.a]![nextIndex[c.a]!];
+    return na !== undefined && na === upcoming[c.b]![nextIndex[c.b]!] ? 2 : 1;
+  };
+  for (const ev of timeline.events) {
+    if (ev.segment > 0) {
+      const active = new Set(ev.driftQubits);
+      const what = `drift ${Number(ev.segment.toPrecision(6))} ns`;
+      const live = pairs.filter((c) => active.has(c.a) && active.has(c.b)).map((c) => ({ c, r: rank(c) }));
+      for (const r of [0, 1, 2]) {
+        for (const { c } of live.filter((x) => x.r === r)) {
+          pushNoisy({ op: 'unitary', qubits: [c.a, c.b], matrix: zzRotation(zzAngle(c.zz, ev.segment)) }, { step: -1, what });
+        }
+      }
+      for (const q of ev.driftQubits) {
+        const delta = profile.qubits[q]!.detuning;
+        if (delta === 0) continue;
+        pushNoisy({ op: 'unitary', qubits: [q], matrix: zRotation(detuningAngle(delta, ev.segment)) }, { step: -1, what });
+      }
+      for (const q of ev.idleQubits) emitIdle({ qubit: q, start: ev.time - ev.segment, end: ev.time });
+    }
+    for (const i of ev.starts) {
+      const item = schedule.items[i]!;
+      emitOperation(item);
+      for (const q of item.op.qubits) {
+        lastOp[q] = item;
+        nextIndex[q]!++;
+      }
+    }
+  }
+  return { n, noisy, origins, ideal, record: recordProgram() };
 }

@@ -71,6 +71,11 @@ interface Constraint {
 export interface ScheduleOptions {
   /** Classical latency (ns) from a measurement's end to the earliest start of a step conditioned on its bit (record mode; default 0). */
   readonly latency?: number;
+  /**
+   * Simultaneous readout: every measure step starts all its qubits' measurements together, as if
+   * a barrier over them came first (default false: each qubit is measured as soon as it is free).
+   */
+  readonly simultaneousMeasure?: boolean;
 }
 
 /** Schedules `ops` on n qubits; `durationOf` gives each application's duration in ns. */
@@ -81,10 +86,34 @@ export function scheduleOperations(
   policy: 'asap' | 'alap',
   options: ScheduleOptions = {},
 ): Schedule {
-  const dur = ops.map((op) => (op.kind === 'barrier' ? 0 : durationOf(op)));
-  const { constraints, feeds } = classicalConstraints(ops, dur, options.latency ?? 0);
-  const times = policy === 'asap' ? asap(ops, n, dur, constraints) : alap(ops, n, dur, constraints);
-  return { ...withIdleWindows(ops, n, times.start, times.end, times.total, policy), feeds };
+  const timed = options.simultaneousMeasure === true ? withMeasureBarriers(ops) : ops;
+  const dur = timed.map((op) => (op.kind === 'barrier' ? 0 : durationOf(op)));
+  const { constraints, feeds } = classicalConstraints(timed, dur, options.latency ?? 0);
+  const times = policy === 'asap' ? asap(timed, n, dur, constraints) : alap(timed, n, dur, constraints);
+  const schedule = { ...withIdleWindows(timed, n, times.start, times.end, times.total, policy), feeds };
+  if (timed === ops) return schedule;
+  // the barriers placed for simultaneous readout are not steps of the circuit; feeds follow the items they name
+  const own = new Set(ops);
+  const index = new Map<number, number>();
+  const items = schedule.items.filter((it, i) => {
+    if (!own.has(it.op)) return false;
+    index.set(i, index.size);
+    return true;
+  });
+  return { ...schedule, items, feeds: feeds.map((f) => ({ ...f, measure: index.get(f.measure)!, to: index.get(f.to)! })) };
+}
+
+/** `ops` with a barrier over each measure step's qubits right before its first measurement. */
+function withMeasureBarriers(ops: readonly Operation[]): Operation[] {
+  const out: Operation[] = [];
+  ops.forEach((op, i) => {
+    if (op.kind === 'measure' && (i === 0 || ops[i - 1]!.kind !== 'measure' || ops[i - 1]!.step !== op.step)) {
+      const qubits = ops.filter((o) => o.kind === 'measure' && o.step === op.step).map((o) => o.qubits[0]!);
+      out.push({ kind: 'barrier', step: op.step, at: op.at, qubits });
+    }
+    out.push(op);
+  });
+  return out;
 }
 
 /** The classical dependencies of `ops` as constraints per operation (indices in program order), and the feeds among them. */
