@@ -255,3 +255,52 @@ ${bits}steps:
     expect(Math.abs(declared.probabilities.ideal['01']! - 1)).toBeLessThan(EXACT);
   });
 });
+
+describe('record mode on the event timeline (issue 7 drift)', () => {
+  // H = (π·ζ/2)·Z0 Z1 (docs/format.md); with qubit 0 in |1⟩ qubit 1 precesses by π·ζ·τ about Z, so
+  // ⟨X1⟩ = cos(π·ζ·τ) after τ (derived). A mid-circuit measurement of qubit 0 does not stop the
+  // coupling; a terminal one (version 1) does, from its start on.
+  const text = (measure: string) => `qubits: 2
+noise:
+  couplings: { "0 1": { zz: 100kHz } }
+  gates: { all: { duration: 0ns } }
+steps:
+  - x: 0
+  - h: 1
+${measure}  - idle: 1
+    for: 2us
+observe: [IX]
+`;
+  it('drift goes on after a mid-circuit measurement: ⟨X1⟩ = cos(π·ζ·2 µs)', () => {
+    const r = sim(text('  - measure: 0\n    into: m\n')).result;
+    expect(Math.abs(r.observables!['IX']!.noisy - Math.cos(Math.PI * 100e3 * 2e-6))).toBeLessThan(EXACT);
+    expect(Math.abs(r.probabilities.measured['1']! - 1)).toBeLessThan(EXACT);
+  });
+
+  it('… while a terminal measurement (version 1) stops it: ⟨X1⟩ = 1', () => {
+    const r = sim(text('  - measure: 0\n')).result;
+    expect(Math.abs(r.observables!['IX']!.noisy - 1)).toBeLessThan(EXACT);
+  });
+
+  it('a conditioned step on a split composite keeps its condition on every part', () => {
+    const r = sim(`qubits: 2
+gates:
+  flip2:
+    qubits: 1
+    steps:
+      - x: 0
+      - z: 0
+noise:
+  gates:
+    flip2: { split: true }
+steps:
+  - measure: 0
+    into: m
+  - flip2: 1
+    if: m
+observe: [IZ]
+`).result;
+    // m reads 0, so neither part acts
+    expect(Math.abs(r.observables!['IZ']!.noisy - 1)).toBeLessThan(EXACT);
+  });
+});

@@ -198,3 +198,30 @@ ${steps}`);
     ]);
   });
 });
+
+describe('classical dependencies with simultaneous readout', () => {
+  it('the feeds name the right items after the readout barriers are taken out', () => {
+    const { circuit, profile: p } = loadText(`qubits: 3
+noise:
+  gates:
+    all: { duration: 10ns }
+    measure: { duration: 500ns, latency: 200ns, simultaneous: true }
+steps:
+  - h: 0
+  - measure: [0, 1]
+    into: [a, b]
+  - x: 2
+    if: b
+`);
+    const s = scheduleCircuit(circuit, p);
+    expect(s.feeds).toHaveLength(1);
+    const f = s.feeds[0]!;
+    const from = s.items[f.measure]!;
+    const to = s.items[f.to]!;
+    expect(from.op.kind === 'measure' && from.op.qubits[0]).toBe(1);
+    expect(to.op.kind === 'gate' && to.op.name).toBe('x');
+    // both measurements start together at 10 (after h on qubit 0); x waits for 10 + 500 + 200
+    expect(from.start).toBe(10);
+    expect(to.start).toBe(710);
+  });
+});
