@@ -32,11 +32,11 @@ export interface Mat {
 /** A complex number as [re, im]. */
 export type Cx = readonly [number, number];
 
-function zeros(d: number): Mat {
+export function zeros(d: number): Mat {
   return { d, re: new Float64Array(d * d), im: new Float64Array(d * d) };
 }
 
-function fromRows(rows: readonly (readonly Cx[])[]): Mat {
+export function fromRows(rows: readonly (readonly Cx[])[]): Mat {
   const d = rows.length;
   const m = zeros(d);
   for (let r = 0; r < d; r++) {
@@ -49,13 +49,13 @@ function fromRows(rows: readonly (readonly Cx[])[]): Mat {
   return m;
 }
 
-function identity(d: number): Mat {
+export function identity(d: number): Mat {
   const m = zeros(d);
   for (let i = 0; i < d; i++) m.re[i * d + i] = 1;
   return m;
 }
 
-function matmul(a: Mat, b: Mat): Mat {
+export function matmul(a: Mat, b: Mat): Mat {
   const d = a.d;
   const out = zeros(d);
   for (let i = 0; i < d; i++) {
@@ -74,7 +74,7 @@ function matmul(a: Mat, b: Mat): Mat {
   return out;
 }
 
-function adjoint(a: Mat): Mat {
+export function adjoint(a: Mat): Mat {
   const d = a.d;
   const out = zeros(d);
   for (let i = 0; i < d; i++) {
@@ -86,7 +86,7 @@ function adjoint(a: Mat): Mat {
   return out;
 }
 
-function kron(a: Mat, b: Mat): Mat {
+export function kron(a: Mat, b: Mat): Mat {
   const d = a.d * b.d;
   const out = zeros(d);
   for (let i = 0; i < a.d; i++) {
@@ -107,7 +107,7 @@ function kron(a: Mat, b: Mat): Mat {
   return out;
 }
 
-function scale(a: Mat, s: number): Mat {
+export function scale(a: Mat, s: number): Mat {
   const out = zeros(a.d);
   for (let i = 0; i < a.re.length; i++) {
     out.re[i] = a.re[i]! * s;
@@ -116,7 +116,7 @@ function scale(a: Mat, s: number): Mat {
   return out;
 }
 
-function expi(phi: number): Cx {
+export function expi(phi: number): Cx {
   return [Math.cos(phi), Math.sin(phi)];
 }
 
@@ -128,16 +128,16 @@ function cmul(a: Cx, b: Cx): Cx {
 // Built-in gates (contract: "Built-in gates (trade-standard names and matrices)")
 // ---------------------------------------------------------------------------------------
 
-const ONE: Cx = [1, 0];
-const ZERO: Cx = [0, 0];
+export const ONE: Cx = [1, 0];
+export const ZERO: Cx = [0, 0];
 const I_: Cx = [0, 1];
 const MI: Cx = [0, -1];
 const R2 = Math.SQRT1_2;
 
-const PAULI_X = fromRows([[ZERO, ONE], [ONE, ZERO]]);
-const PAULI_Y = fromRows([[ZERO, MI], [I_, ZERO]]);
-const PAULI_Z = fromRows([[ONE, ZERO], [ZERO, [-1, 0]]]);
-const ID2 = identity(2);
+export const PAULI_X = fromRows([[ZERO, ONE], [ONE, ZERO]]);
+export const PAULI_Y = fromRows([[ZERO, MI], [I_, ZERO]]);
+export const PAULI_Z = fromRows([[ONE, ZERO], [ZERO, [-1, 0]]]);
+export const ID2 = identity(2);
 
 /** Block-diagonal controlled-U, control = the first (most significant) qubit. */
 function controlled(u: Mat): Mat {
@@ -262,19 +262,19 @@ export const BUILTIN_GATES: Readonly<Record<string, BuiltinGate>> = {
 // ---------------------------------------------------------------------------------------
 
 /** Bit of qubit q in basis index idx of an n-qubit register (qubit 0 = most significant). */
-function bit(idx: number, q: number, n: number): number {
+export function bit(idx: number, q: number, n: number): number {
   return (idx >> (n - 1 - q)) & 1;
 }
 
 /** Sub-index of the target qubits in idx (first target most significant). */
-function subIndex(idx: number, targets: readonly number[], n: number): number {
+export function subIndex(idx: number, targets: readonly number[], n: number): number {
   let s = 0;
   for (const q of targets) s = (s << 1) | bit(idx, q, n);
   return s;
 }
 
 /** idx with the target bits replaced by the bits of sub-index s. */
-function withSub(idx: number, targets: readonly number[], s: number, n: number): number {
+export function withSub(idx: number, targets: readonly number[], s: number, n: number): number {
   const k = targets.length;
   let out = idx;
   for (let j = 0; j < k; j++) {
@@ -286,7 +286,7 @@ function withSub(idx: number, targets: readonly number[], s: number, n: number):
 }
 
 /** The operator K (on `targets`) ⊗ identity (elsewhere), as a sparse list of rows. */
-function embed(k: Mat, targets: readonly number[], n: number): { c: number; re: number; im: number }[][] {
+export function embed(k: Mat, targets: readonly number[], n: number): { c: number; re: number; im: number }[][] {
   const D = 1 << n;
   const rows: { c: number; re: number; im: number }[][] = [];
   for (let r = 0; r < D; r++) {
@@ -304,7 +304,7 @@ function embed(k: Mat, targets: readonly number[], n: number): { c: number; re: 
 }
 
 /** Σ_j K_j ρ K_j† with every K_j embedded on `targets` (a linear map on any matrix ρ). */
-function applyKraus(rho: Mat, kraus: readonly Mat[], targets: readonly number[], n: number): Mat {
+export function applyKraus(rho: Mat, kraus: readonly Mat[], targets: readonly number[], n: number): Mat {
   const D = rho.d;
   const out = zeros(D);
   for (const k of kraus) {
@@ -341,7 +341,7 @@ function applyKraus(rho: Mat, kraus: readonly Mat[], targets: readonly number[],
  * k-qubit depolarizing by its definition ρ → (1 − p)ρ + p·(I/d) ⊗ Tr_targets ρ, d = 2^k
  * (contract "Channel definitions"; on a subsystem, Nielsen & Chuang §8.3.4, eq. 8.102).
  */
-function applyDepolarizing(rho: Mat, p: number, targets: readonly number[], n: number): Mat {
+export function applyDepolarizing(rho: Mat, p: number, targets: readonly number[], n: number): Mat {
   const D = rho.d;
   const d = 1 << targets.length;
   const out = scale(rho, 1 - p);
@@ -375,7 +375,7 @@ export interface Thermal {
  * p1(τ) = p1·e^{−τ/t1} + pe·(1 − e^{−τ/t1}), coherences × e^{−τ/t2}. Written on the 2×2
  * blocks ρ_ab of ρ = Σ |a⟩⟨b| ⊗ ρ_ab (linear extension to the rest of the register).
  */
-function applyThermal(rho: Mat, q: number, th: Thermal, tau: number, n: number): Mat {
+export function applyThermal(rho: Mat, q: number, th: Thermal, tau: number, n: number): Mat {
   const D = rho.d;
   const e1 = Math.exp(-tau / th.t1);
   const e2 = Math.exp(-tau / th.t2);
@@ -408,7 +408,7 @@ function applyThermal(rho: Mat, q: number, th: Thermal, tau: number, n: number):
 }
 
 /** Reset of qubit q by the contract's definition ρ → |0⟩⟨0| ⊗ Tr_q ρ. */
-function applyReset(rho: Mat, q: number, n: number): Mat {
+export function applyReset(rho: Mat, q: number, n: number): Mat {
   const D = rho.d;
   const out = zeros(D);
   const mask = 1 << (n - 1 - q);
@@ -431,7 +431,7 @@ export type Op =
   | { readonly type: 'thermal'; readonly q: number; readonly th: Thermal; readonly tau: number }
   | { readonly type: 'reset'; readonly q: number };
 
-function applyOp(rho: Mat, op: Op, n: number): Mat {
+export function applyOp(rho: Mat, op: Op, n: number): Mat {
   switch (op.type) {
     case 'kraus':
       return applyKraus(rho, op.kraus, op.targets, n);
@@ -444,7 +444,7 @@ function applyOp(rho: Mat, op: Op, n: number): Mat {
   }
 }
 
-function remapOp(op: Op, map: readonly number[]): Op {
+export function remapOp(op: Op, map: readonly number[]): Op {
   switch (op.type) {
     case 'kraus':
     case 'depolarizing':
@@ -598,19 +598,19 @@ function parseEntry(v: unknown): Cx {
   throw new Error(`unsupported matrix entry ${JSON.stringify(v)}`);
 }
 
-function parseMatrix(rows: unknown): Mat {
+export function parseMatrix(rows: unknown): Mat {
   return fromRows((rows as unknown[][]).map((row) => row.map(parseEntry)));
 }
 
-function log2int(d: number): number {
+export function log2int(d: number): number {
   const k = Math.round(Math.log2(d));
   if (1 << k !== d) throw new Error(`dimension ${d} is not a power of two`);
   return k;
 }
 
-type Dict = Record<string, unknown>;
+export type Dict = Record<string, unknown>;
 
-const NOISE_ORDER = [
+export const NOISE_ORDER = [
   'amplitude_damping',
   'phase_damping',
   'bit_flip',
@@ -620,10 +620,10 @@ const NOISE_ORDER = [
   'channel',
   'depolarizing',
 ] as const;
-const NOISE_KEYS = new Set<string>([...NOISE_ORDER, 'error']);
+export const NOISE_KEYS = new Set<string>([...NOISE_ORDER, 'error']);
 
 /** Merge of gate-entry maps, field by field, `error` and `depolarizing` replacing each other. */
-function mergeEntry(base: Dict | undefined, over: Dict | undefined): Dict {
+export function mergeEntry(base: Dict | undefined, over: Dict | undefined): Dict {
   const out: Dict = { ...(base ?? {}) };
   for (const [k, v] of Object.entries(over ?? {})) {
     if (k === 'error') delete out.depolarizing;
@@ -1187,7 +1187,7 @@ function sandwich(a: Vec, m: Mat, b: Vec): Cx {
 }
 
 /** ⟨a|b⟩. */
-function inner(a: Vec, b: Vec): Cx {
+export function inner(a: Vec, b: Vec): Cx {
   let sr = 0;
   let si = 0;
   for (let i = 0; i < a.re.length; i++) {
@@ -1198,7 +1198,7 @@ function inner(a: Vec, b: Vec): Cx {
 }
 
 /** A complex vector. */
-interface Vec {
+export interface Vec {
   readonly re: Float64Array;
   readonly im: Float64Array;
 }
@@ -1210,7 +1210,7 @@ interface Vec {
  * twice), S = Q†σQ = L L† (Cholesky), X = Q†ρQ. L†XL is unitarily similar to √S X √S
  * (√S⁻¹L is unitary), so the fidelity is (Σ √eig(L†XL))². For one vector it is ⟨v|ρ|v⟩.
  */
-function ensembleFidelity(ensemble: readonly Vec[], rho: Mat): number {
+export function ensembleFidelity(ensemble: readonly Vec[], rho: Mat): number {
   const D = rho.d;
   const basis: Vec[] = [];
   for (const v of ensemble) {
@@ -1287,14 +1287,14 @@ function ensembleFidelity(ensemble: readonly Vec[], rho: Mat): number {
 }
 
 /** The noise-kind fields of a profile entry. */
-function pickKinds(e: Dict): Dict {
+export function pickKinds(e: Dict): Dict {
   const out: Dict = {};
   for (const [k, v] of Object.entries(e)) if (NOISE_KEYS.has(k)) out[k] = v;
   return out;
 }
 
 /** A k-qubit gate embedded as a full matrix on a `k`-qubit register (first target most significant). */
-function embedFull(g: Mat, targets: readonly number[], n: number): Mat {
+export function embedFull(g: Mat, targets: readonly number[], n: number): Mat {
   const D = 1 << n;
   const out = zeros(D);
   const rows = embed(g, targets, n);
