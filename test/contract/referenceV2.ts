@@ -854,7 +854,8 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
 
   const ideal = idealRun();
   const full = noisyRun(true);
-  const noReadout = recordMode ? noisyRun(false) : full;
+  const anyReadout = readout.some((r) => r.z1 !== 0 || r.o0 !== 0);
+  const noReadout = recordMode && anyReadout ? noisyRun(false) : full;
   const rhoSum = zeros(D);
   for (const m of full.values()) for (let i = 0; i < D * D; i++) {
     rhoSum.re[i] += m.re[i]!;
