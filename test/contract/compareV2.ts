@@ -5,7 +5,7 @@
  */
 import { simulate } from '../../src/api/simulate.js';
 import type { FrayResult } from './compare.js';
-import { disagreements, writeCase } from './compare.js';
+import { AGREEMENT_TOLERANCE, disagreements, writeCase } from './compare.js';
 import type { ReferenceResult } from './reference.js';
 import type { ReferenceResultV2 } from './referenceV2.js';
 import { referenceRunV2 } from './referenceV2.js';
@@ -13,6 +13,7 @@ import { referenceRunV2 } from './referenceV2.js';
 /** fray's result in version 2: the version-1 keys plus the record's bits. */
 export interface FrayResultV2 extends FrayResult {
   readonly bits?: readonly string[];
+  readonly bloch?: { ideal: readonly (readonly number[])[]; noisy: readonly (readonly number[])[] };
 }
 
 /** A fray warning that is about the coupling map (matched on its text: it must name the couplings). */
@@ -34,6 +35,12 @@ export function disagreementsV2(fray: FrayResultV2, ref: ReferenceResultV2): str
   if (couplingWarnings.length !== ref.couplingWarnings.length) {
     const expected = ref.couplingWarnings.map((w) => `${w.gate} [${w.qubits.join(', ')}] at step ${w.step + 1}`);
     out.push(`coupling-map warnings: fray ${couplingWarnings.length} (${couplingWarnings.map((w) => JSON.stringify(w)).join('; ')}), reference ${expected.length} (${expected.join('; ')})`);
+  }
+  for (const which of ['ideal', 'noisy'] as const) {
+    ref.bloch[which].forEach((v, q) => {
+      const f = fray.bloch?.[which][q];
+      if (!f || v.some((x, i) => !(Math.abs(f[i]! - x) <= AGREEMENT_TOLERANCE))) out.push(`bloch.${which}[${q}]: fray ${JSON.stringify(f)}, reference ${JSON.stringify(v)}`);
+    });
   }
   if (ref.bits !== undefined && JSON.stringify(fray.bits) !== JSON.stringify(ref.bits)) out.push(`bits: fray ${JSON.stringify(fray.bits)}, reference ${JSON.stringify(ref.bits)}`);
   return out;

@@ -168,6 +168,23 @@ describe('issue 8: the oracle itself reproduces closed forms (so agreement with 
     expect(r.probabilities.measured['1']).toBeCloseTo((1 - p) * e0 + p * (1 - e1), 13);
   });
 
+  it('its Bloch vectors equal ⟨X⟩, ⟨Y⟩, ⟨Z⟩ computed as Tr(Pρ) with the dense Pauli string (two routes inside the oracle)', () => {
+    for (const seed of [0, 1, 2, 3]) {
+      const c = generateRecordCase(seed);
+      const doc = YAML.parse(c.circuitYaml) as Record<string, unknown>;
+      const n = Array.isArray(doc.qubits) ? doc.qubits.length : (doc.qubits as number);
+      const pauli = (q: number, a: string): string => Array.from({ length: n }, (_, i) => (i === q ? a : 'I')).join('');
+      doc.observe = Array.from({ length: n }, (_, q) => ['X', 'Y', 'Z'].map((a) => pauli(q, a))).flat();
+      const r = referenceRunV2(toYaml(doc), c.deviceYaml);
+      for (let q = 0; q < n; q++) {
+        ['X', 'Y', 'Z'].forEach((a, i) => {
+          expect(r.bloch.noisy[q]![i]!).toBeCloseTo(r.observables![pauli(q, a)]!.noisy, 13);
+          expect(r.bloch.ideal[q]![i]!).toBeCloseTo(r.observables![pauli(q, a)]!.ideal, 13);
+        });
+      }
+    }
+  });
+
   it('a record-mode circuit whose measurements are all at the end gives the version-1 distributions', () => {
     let compared = 0;
     for (let seed = 0; seed < 120 && compared < 6; seed++) {

@@ -254,6 +254,8 @@ export interface ReferenceResultV2 {
   readonly fidelity: { state: number; classical: number };
   readonly tvd: number;
   readonly purity: number;
+  /** Per-qubit Bloch vectors [⟨X⟩, ⟨Y⟩, ⟨Z⟩], of the ideal and of the noisy state (Σ_r ρ_r in record mode). */
+  readonly bloch: { ideal: number[][]; noisy: number[][] };
   readonly observables?: Record<string, { ideal: number; noisy: number }>;
   /** Gates whose `error:` was already exceeded by the rest of their channel (p = 0). */
   readonly limitedErrors: string[];
@@ -937,6 +939,38 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
   let purity = 0;
   for (const m of full.values()) for (let i = 0; i < D * D; i++) purity += m.re[i]! ** 2 + m.im[i]! ** 2;
 
+  // Bloch vectors (⟨X⟩, ⟨Y⟩, ⟨Z⟩) per qubit: ⟨X⟩ = 2·Re ρ_01, ⟨Y⟩ = 2·Im ρ_10, ⟨Z⟩ = ρ_00 − ρ_11 (reduced state of the qubit)
+  const blochOf = (entry: (r: number, c: number) => [number, number]): number[][] =>
+    Array.from({ length: n }, (_, q) => {
+      const mask = 1 << (n - 1 - q);
+      let x = 0;
+      let y = 0;
+      let z = 0;
+      for (let i = 0; i < D; i++) {
+        if (i & mask) {
+          z -= entry(i, i)[0];
+          continue;
+        }
+        z += entry(i, i)[0];
+        x += 2 * entry(i, i | mask)[0];
+        y += 2 * entry(i | mask, i)[1];
+      }
+      return [x, y, z];
+    });
+  const bloch = {
+    ideal: blochOf((r, c) => {
+      let re = 0;
+      let im = 0;
+      for (const v of allIdeal) {
+        // v_r · conj(v_c)
+        re += v.re[r]! * v.re[c]! + v.im[r]! * v.im[c]!;
+        im += v.im[r]! * v.re[c]! - v.re[r]! * v.im[c]!;
+      }
+      return [re, im];
+    }),
+    noisy: blochOf((r, c) => [rhoSum.re[r * D + c]!, rhoSum.im[r * D + c]!]),
+  };
+
   let observables: Record<string, { ideal: number; noisy: number }> | undefined;
   if (Array.isArray(doc.observe)) {
     observables = {};
@@ -973,6 +1007,7 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
     fidelity: { state: fstate, classical: fc * fc },
     tvd,
     purity,
+    bloch,
     ...(observables ? { observables } : {}),
     limitedErrors,
     couplingWarnings,
