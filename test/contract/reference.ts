@@ -32,10 +32,12 @@ export interface Mat {
 /** A complex number as [re, im]. */
 export type Cx = readonly [number, number];
 
+/** The d×d zero matrix. */
 export function zeros(d: number): Mat {
   return { d, re: new Float64Array(d * d), im: new Float64Array(d * d) };
 }
 
+/** A matrix from its rows of complex entries. */
 export function fromRows(rows: readonly (readonly Cx[])[]): Mat {
   const d = rows.length;
   const m = zeros(d);
@@ -49,12 +51,14 @@ export function fromRows(rows: readonly (readonly Cx[])[]): Mat {
   return m;
 }
 
+/** The d×d identity. */
 export function identity(d: number): Mat {
   const m = zeros(d);
   for (let i = 0; i < d; i++) m.re[i * d + i] = 1;
   return m;
 }
 
+/** The product a·b. */
 export function matmul(a: Mat, b: Mat): Mat {
   const d = a.d;
   const out = zeros(d);
@@ -74,6 +78,7 @@ export function matmul(a: Mat, b: Mat): Mat {
   return out;
 }
 
+/** The conjugate transpose a†. */
 export function adjoint(a: Mat): Mat {
   const d = a.d;
   const out = zeros(d);
@@ -86,6 +91,7 @@ export function adjoint(a: Mat): Mat {
   return out;
 }
 
+/** The Kronecker product a ⊗ b (a the more significant factor). */
 export function kron(a: Mat, b: Mat): Mat {
   const d = a.d * b.d;
   const out = zeros(d);
@@ -107,6 +113,7 @@ export function kron(a: Mat, b: Mat): Mat {
   return out;
 }
 
+/** s·a for a real s. */
 export function scale(a: Mat, s: number): Mat {
   const out = zeros(a.d);
   for (let i = 0; i < a.re.length; i++) {
@@ -116,6 +123,7 @@ export function scale(a: Mat, s: number): Mat {
   return out;
 }
 
+/** e^{iφ}. */
 export function expi(phi: number): Cx {
   return [Math.cos(phi), Math.sin(phi)];
 }
@@ -128,12 +136,14 @@ function cmul(a: Cx, b: Cx): Cx {
 // Built-in gates (contract: "Built-in gates (trade-standard names and matrices)")
 // ---------------------------------------------------------------------------------------
 
+/** The complex numbers 1 and 0. */
 export const ONE: Cx = [1, 0];
 export const ZERO: Cx = [0, 0];
 const I_: Cx = [0, 1];
 const MI: Cx = [0, -1];
 const R2 = Math.SQRT1_2;
 
+/** The Pauli matrices and the 2×2 identity (Nielsen & Chuang eq. 2.29–2.32). */
 export const PAULI_X = fromRows([[ZERO, ONE], [ONE, ZERO]]);
 export const PAULI_Y = fromRows([[ZERO, MI], [I_, ZERO]]);
 export const PAULI_Z = fromRows([[ONE, ZERO], [ZERO, [-1, 0]]]);
@@ -431,6 +441,7 @@ export type Op =
   | { readonly type: 'thermal'; readonly q: number; readonly th: Thermal; readonly tau: number }
   | { readonly type: 'reset'; readonly q: number };
 
+/** One channel step applied to an n-qubit matrix. */
 export function applyOp(rho: Mat, op: Op, n: number): Mat {
   switch (op.type) {
     case 'kraus':
@@ -444,6 +455,7 @@ export function applyOp(rho: Mat, op: Op, n: number): Mat {
   }
 }
 
+/** The op with its local qubit numbers replaced through `map` (local → register). */
 export function remapOp(op: Op, map: readonly number[]): Op {
   switch (op.type) {
     case 'kraus':
@@ -598,18 +610,22 @@ function parseEntry(v: unknown): Cx {
   throw new Error(`unsupported matrix entry ${JSON.stringify(v)}`);
 }
 
+/** A matrix from the file's rows of matrix entries. */
 export function parseMatrix(rows: unknown): Mat {
   return fromRows((rows as unknown[][]).map((row) => row.map(parseEntry)));
 }
 
+/** log2 of a power of two (the number of qubits of a dimension). */
 export function log2int(d: number): number {
   const k = Math.round(Math.log2(d));
   if (1 << k !== d) throw new Error(`dimension ${d} is not a power of two`);
   return k;
 }
 
+/** A parsed YAML map. */
 export type Dict = Record<string, unknown>;
 
+/** The noise kinds in the contract's order of application. */
 export const NOISE_ORDER = [
   'amplitude_damping',
   'phase_damping',
@@ -620,6 +636,7 @@ export const NOISE_ORDER = [
   'channel',
   'depolarizing',
 ] as const;
+/** Every noise-kind key of a version-1 gate entry. */
 export const NOISE_KEYS = new Set<string>([...NOISE_ORDER, 'error']);
 
 /** Merge of gate-entry maps, field by field, `error` and `depolarizing` replacing each other. */
