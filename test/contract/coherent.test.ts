@@ -49,6 +49,8 @@ const REQUIRED_FEATURES = [
   'coherent-standalone',
   'coherent+error',
   'v2:device+inline',
+  'split',
+  'simultaneous',
   'schedule:asap',
   'schedule:alap',
   'idle:none',

@@ -236,6 +236,20 @@ export function addCoherentNoise(p: CaseParts, rng: Rng): void {
     features.add('coherent-step-noise');
     if ((step.noise as Dict).error !== undefined) features.add('coherent+error');
   }
+  // a composite run as its parts (`split: true` in its entry); its steps then carry no `noise:`
+  const usesComp = (circuit.steps as Dict[]).some((st) => st.comp !== undefined);
+  if (usesComp && rng() < 0.45) {
+    const gates = (home().gates ??= {}) as Dict;
+    ((gates.comp ??= {}) as Dict).split = true;
+    for (const st of circuit.steps as Dict[]) if (st.comp !== undefined) delete st.noise;
+    features.add('split');
+  }
+  // simultaneous readout
+  if ((circuit.steps as Dict[]).some((st) => st.measure !== undefined) && rng() < 0.35) {
+    const gates = (home().gates ??= {}) as Dict;
+    ((gates.measure ??= {}) as Dict).simultaneous = true;
+    features.add('simultaneous');
+  }
   if (p.device && circuit.noise) features.add('v2:device+inline');
 }
 

@@ -42,6 +42,13 @@
  *      for `measure`); the generator writes none.
  *  R12 The error solve includes the coherent part: its channel is U → coherent → thermal for
  *      the gate's duration → the listed kinds, all before the solved depolarizing step.
+ *  R13 `split: true` (fray's key, learnt from its error message) in the merged entry of a
+ *      composite application runs it as its parts: each part is a gate application of its own
+ *      (own entry by its name and mapped qubits, own schedule slot, own coherent/error, own
+ *      coupling-map check); the composite as a whole is then not checked against the map. A
+ *      step's `noise:` on a split composite would replace each part's kinds (not generated).
+ *  R14 `simultaneous: true` in the `measure` entry (fray's key): each measure step is preceded
+ *      by a barrier over its qubits, in both schedules (ALAP mirrors it like any barrier).
  */
 import YAML from 'yaml';
 import type { Dict, Mat, Op, Thermal, Vec } from './reference.js';
@@ -387,7 +394,13 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
     if (raw.length !== count) throw new Error(`expected ${count} angles`);
     return raw.map((v) => angleValue(v, scope));
   };
-  const customGates = new Map<string, { k: number; params: number; unitary: (a: readonly number[]) => Mat }>();
+  /** A composite gate's parts: built-in gate name, local targets and matrix, in order. */
+  interface Part {
+    readonly name: string;
+    readonly targets: readonly number[];
+    readonly u: Mat;
+  }
+  const customGates = new Map<string, { k: number; params: number; unitary: (a: readonly number[]) => Mat; parts?: (a: readonly number[]) => Part[] }>();
   for (const [name, def] of Object.entries((doc.gates ?? {}) as Dict)) {
     const g = def as Dict;
     if (g.matrix !== undefined) {
@@ -396,19 +409,19 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
     } else {
       const k = g.qubits as number;
       const pnames = (g.params ?? []) as string[];
-      const unitary = (a: readonly number[]): Mat => {
+      const parts = (a: readonly number[]): Part[] => {
         const scope: Record<string, number> = { ...circuitParams };
         pnames.forEach((pn, i) => (scope[pn] = a[i]!));
-        let u = identity(1 << k);
-        for (const st of g.steps as Dict[]) {
+        return (g.steps as Dict[]).map((st) => {
           const gname = Object.keys(st).find((x) => x !== 'angle' && x !== 'angles' && x !== 'label')!;
           const bg = BUILTIN_GATES[gname]!;
-          const tg = Array.isArray(st[gname]) ? (st[gname] as number[]) : [st[gname] as number];
-          u = matmul(embedFull(bg.matrix(stepAngles(st, bg.angles, scope)), tg, k), u);
-        }
-        return u;
+          const targets = Array.isArray(st[gname]) ? (st[gname] as number[]) : [st[gname] as number];
+          return { name: gname, targets, u: bg.matrix(stepAngles(st, bg.angles, scope)) };
+        });
       };
-      customGates.set(name, { k, params: pnames.length, unitary });
+      // later parts multiply from the left
+      const unitary = (a: readonly number[]): Mat => parts(a).reduce((u, p) => matmul(embedFull(p.u, p.targets, k), u), identity(1 << k));
+      customGates.set(name, { k, params: pnames.length, unitary, parts });
     }
   }
   const channels = new Map<string, { k: number; kraus: Mat[] }>();
@@ -552,6 +565,8 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
       const e = entryFor('measure', []);
       const dur = e.duration !== undefined ? durationNs(e.duration) : 0;
       const qs = listOf(target).map(ref);
+      // simultaneous readout: as if a barrier over the step's qubits came first
+      if (e.simultaneous === true) apps.push({ ...base, kind: 'barrier', name: 'barrier', qubits: qs, duration: 0 });
       const into = step.into === undefined ? undefined : listOf(step.into).map(String);
       if (into && into.length !== qs.length) throw new Error('into: one bit per target');
       qs.forEach((q, j) => {
@@ -574,31 +589,13 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
       }
       return;
     }
-    let k: number;
-    let u: Mat;
-    const bg = BUILTIN_GATES[action];
-    if (bg) {
-      k = bg.k;
-      u = bg.matrix(stepAngles(step, bg.angles, circuitParams));
-    } else {
-      const cg = customGates.get(action);
-      if (!cg) throw new Error(`unknown gate ${action}`);
-      k = cg.k;
-      u = cg.unitary(stepAngles(step, cg.params, circuitParams));
-    }
-    const groups: number[][] =
-      k === 1
-        ? listOf(target).map((q) => [ref(q)])
-        : (target as unknown[]).some(Array.isArray)
-          ? (target as unknown[]).map((g) => (g as unknown[]).map(ref))
-          : [(target as unknown[]).map(ref)];
-    for (const g of groups) {
-      if (g.length !== k) throw new Error(`${action} needs ${k} qubits`);
-      if (hasCouplings && k >= 2 && !connected(g)) couplingWarnings.push({ gate: action, qubits: g, step: stepIndex });
-      const e = entryFor(action, g);
+    /** One gate application: U → coherent → thermal for its duration → listed kinds → solved depolarizing. */
+    const pushGate = (name: string, u: Mat, g: readonly number[]): void => {
+      const k = g.length;
+      if (hasCouplings && k >= 2 && !connected(g)) couplingWarnings.push({ gate: name, qubits: g, step: stepIndex });
+      const e = entryFor(name, g);
       const dur = e.duration !== undefined ? durationNs(e.duration) : 0;
       const kinds = step.noise === 'none' ? {} : step.noise !== undefined ? (step.noise as Dict) : pickKindsV2(e);
-      // U → coherent → thermal relaxation for the gate's duration → listed kinds → solved depolarizing
       const ops: Op[] = [...coherentOps(kinds, k)];
       if (e.thermal !== false) {
         g.forEach((q, local) => {
@@ -611,10 +608,37 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
       if (kn.error !== undefined) {
         const { p, limited } = solveErrorByBisection(u, ops, k, kn.error);
         solvedErrors.push(p);
-        if (limited) limitedErrors.push(`${action} ${g.join(' ')}: error ${kn.error} below the rest of its channel`);
+        if (limited) limitedErrors.push(`${name} ${g.join(' ')}: error ${kn.error} below the rest of its channel`);
         if (p > 0) ops.push({ type: 'depolarizing', p, targets: Array.from({ length: k }, (_, i) => i) });
       }
-      apps.push({ ...base, kind: 'gate', name: action, qubits: g, duration: dur, unitary: u, ops });
+      apps.push({ ...base, kind: 'gate', name, qubits: g, duration: dur, unitary: u, ops });
+    };
+    let k: number;
+    let angles: number[];
+    const bg = BUILTIN_GATES[action];
+    const cg = customGates.get(action);
+    if (bg) {
+      k = bg.k;
+      angles = stepAngles(step, bg.angles, circuitParams);
+    } else {
+      if (!cg) throw new Error(`unknown gate ${action}`);
+      k = cg.k;
+      angles = stepAngles(step, cg.params, circuitParams);
+    }
+    const groups: number[][] =
+      k === 1
+        ? listOf(target).map((q) => [ref(q)])
+        : (target as unknown[]).some(Array.isArray)
+          ? (target as unknown[]).map((g) => (g as unknown[]).map(ref))
+          : [(target as unknown[]).map(ref)];
+    for (const g of groups) {
+      if (g.length !== k) throw new Error(`${action} needs ${k} qubits`);
+      if (cg?.parts && entryFor(action, g).split === true) {
+        // run as its parts: each scheduled and noisy as its own gate under its own entry (R13)
+        for (const part of cg.parts(angles)) pushGate(part.name, part.u, part.targets.map((t) => g[t]!));
+        continue;
+      }
+      pushGate(action, bg ? bg.matrix(angles) : cg!.unitary(angles), g);
     }
   });
 
