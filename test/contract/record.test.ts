@@ -114,6 +114,17 @@ describe('issue 8: fray agrees with the oracle on readings of the contract', () 
     check('bit rewrite', `qubits: 2\n${profile()}steps:\n  - h: [0, 1]\n  - measure: 0\n    into: c[0]\n  - z: 1\n    if: c[0]\n  - measure: 1\n    into: c[0]\n  - x: 0\n    if: { "c[0]": 0 }\n  - measure: 0\n    into: c[1]\n`);
   });
 
+  it('a measurement writing b starts no earlier than every earlier step that reads or writes b, in both schedules', () => {
+    // qubit 0 is busy for 2 µs, so its write of b starts late; qubit 1's later write of b must wait for it,
+    // and for the reader on qubit 2 in between
+    for (const schedule of ['asap', 'alap']) {
+      check(
+        `write order ${schedule}`,
+        `qubits: 3\n${profile(`  schedule: ${schedule}\n`)}steps:\n  - h: [0, 1]\n  - idle: 0\n    for: 2us\n  - measure: 0\n    into: b\n  - ry: 2\n    angle: 1.3\n    if: b\n  - measure: 1\n    into: b\n  - h: 2\n    if: { b: 0 }\n  - measure: 2\n    into: c\n`,
+      );
+    }
+  });
+
   it('`bits:` fixes the order of the record (and of the keys)', () => {
     check('bits order', `qubits: 2\nbits: [late, early]\n${profile()}steps:\n  - x: 0\n  - measure: 0\n    into: early\n  - h: 1\n  - measure: 1\n    into: late\n`);
   });
