@@ -18,7 +18,7 @@ import { referenceRun } from './reference.js';
 import { referenceRunV2 } from './referenceV2.js';
 
 /** Random circuits of 1–6 qubits (seeds 0..SEEDS−1); FRAY_COHERENT_SEEDS=N widens the sweep by hand. */
-const SEEDS = Number(process.env.FRAY_COHERENT_SEEDS ?? 90);
+const SEEDS = Number(process.env.FRAY_COHERENT_SEEDS ?? 60);
 /** Random circuits of 7–8 qubits (the contract's upper end), few because the oracle is dense. */
 const LARGE_SEEDS = (process.env.FRAY_COHERENT_LARGE ?? '1,2').split(',').map(Number);
 /** Agreement of the oracle with itself and with closed forms (rounding only). */

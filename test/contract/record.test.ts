@@ -22,7 +22,7 @@ import { referenceRun } from './reference.js';
 import { referenceRunV2 } from './referenceV2.js';
 
 /** Random record-mode circuits of 1–6 qubits (seeds 0..SEEDS−1); FRAY_RECORD_SEEDS=N widens the sweep by hand. */
-const SEEDS = Number(process.env.FRAY_RECORD_SEEDS ?? 30);
+const SEEDS = Number(process.env.FRAY_RECORD_SEEDS ?? 25);
 const WITH_COHERENT = process.env.FRAY_RECORD_WITH_COHERENT === '1';
 /** Agreement of the oracle with closed forms (rounding only). */
 const ORACLE_TOLERANCE = 1e-12;
