@@ -3,9 +3,10 @@
  * everything the version-1 comparison checks, plus the coupling-map warnings (one per
  * gate application) and, in record mode, the record's bit names.
  */
+import { expect } from 'vitest';
 import { simulate } from '../../src/api/simulate.js';
 import type { FrayResult } from './compare.js';
-import { AGREEMENT_TOLERANCE, disagreements, writeCase } from './compare.js';
+import { AGREEMENT_TOLERANCE, disagreements, failureReport, writeCase } from './compare.js';
 import type { ReferenceResult } from './reference.js';
 import type { ReferenceResultV2 } from './referenceV2.js';
 import { referenceRunV2 } from './referenceV2.js';
@@ -29,8 +30,7 @@ export function runBothV2(fileName: string, circuitYaml: string, devicePath?: st
 
 /** Every disagreement between fray's result and the version-2 oracle's, one line each. */
 export function disagreementsV2(fray: FrayResultV2, ref: ReferenceResultV2): string[] {
-  const asV1 = { ...ref, warnings: ref.limitedErrors } as unknown as ReferenceResult;
-  const out = disagreements(fray, asV1);
+  const out = disagreements(fray, ref as unknown as ReferenceResult);
   const couplingWarnings = (fray.warnings ?? []).filter((w) => COUPLING_WARNING.test(JSON.stringify(w)));
   if (couplingWarnings.length !== ref.couplingWarnings.length) {
     const expected = ref.couplingWarnings.map((w) => `${w.gate} [${w.qubits.join(', ')}] at step ${w.step + 1}`);
@@ -44,4 +44,14 @@ export function disagreementsV2(fray: FrayResultV2, ref: ReferenceResultV2): str
   }
   if (ref.bits !== undefined && JSON.stringify(fray.bits) !== JSON.stringify(ref.bits)) out.push(`bits: fray ${JSON.stringify(fray.bits)}, reference ${JSON.stringify(ref.bits)}`);
   return out;
+}
+
+/** Runs one case both ways and fails the test with the seed/title, the YAML and every disagreement; returns the oracle's result. */
+export function expectAgreementV2(title: string, circuitYaml: string, devicePath?: string, deviceYaml?: string): ReferenceResultV2 {
+  const fileName = `${title.replace(/[^A-Za-z0-9]+/g, '-')}.yaml`;
+  const { fray, ref } = runBothV2(fileName, circuitYaml, devicePath, deviceYaml);
+  const lines = disagreementsV2(fray, ref);
+  if (lines.length > 0) console.log(failureReport(title, circuitYaml, deviceYaml, lines));
+  expect(lines, failureReport(title, circuitYaml, deviceYaml, lines)).toEqual([]);
+  return ref;
 }

@@ -12,7 +12,7 @@
 import YAML from 'yaml';
 import type { GeneratedCase, GeneratorOptions } from './generator.js';
 import { generateCase } from './generator.js';
-import { mulberry32, toYaml } from './helpers.js';
+import { mulberry32, pick, toYaml } from './helpers.js';
 
 type Dict = Record<string, unknown>;
 type Rng = () => number;
@@ -25,10 +25,6 @@ const BUILTIN_ARITY: Readonly<Record<string, number>> = {
 };
 const STEP_KEYWORDS = new Set(['idle', 'barrier', 'measure', 'reset']);
 const MODIFIERS = new Set(['angle', 'angles', 'noise', 'for', 'on', 'label', 'into', 'if']);
-
-function pick<T>(rng: Rng, xs: readonly T[]): T {
-  return xs[Math.floor(rng() * xs.length)]!;
-}
 
 /** A parsed generated case that transforms can extend before it is written out again. */
 export interface CaseParts {

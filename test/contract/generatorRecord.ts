@@ -14,7 +14,7 @@ import type { GeneratedCase, GeneratorOptions } from './generator.js';
 import { generateCase } from './generator.js';
 import type { CaseParts } from './generatorCoherent.js';
 import { actionOf, addCoherentNoise, caseOf, partsOf, registerOf } from './generatorCoherent.js';
-import { mulberry32 } from './helpers.js';
+import { mulberry32, pick, shuffle } from './helpers.js';
 
 type Dict = Record<string, unknown>;
 type Rng = () => number;
@@ -24,19 +24,6 @@ export const MAX_MID_MEASUREMENTS = 4;
 
 const BIT_WORDS = ['m1', 'm2', 'syn', 'flag_b', 'herald', 'k'];
 const STEP_KEYWORDS = new Set(['idle', 'barrier', 'measure']);
-
-function pick<T>(rng: Rng, xs: readonly T[]): T {
-  return xs[Math.floor(rng() * xs.length)]!;
-}
-
-function shuffle<T>(rng: Rng, xs: readonly T[]): T[] {
-  const a = [...xs];
-  for (let i = a.length - 1; i > 0; i--) {
-    const j = Math.floor(rng() * (i + 1));
-    [a[i], a[j]] = [a[j]!, a[i]!];
-  }
-  return a;
-}
 
 /** Options of the record-mode generator. */
 export interface RecordOptions extends GeneratorOptions {

@@ -596,6 +596,72 @@ export function durationNs(text: unknown): number {
   return Number(m[1]) * UNIT_NS[m[2]!]!;
 }
 
+const FUNCTIONS: Readonly<Record<string, (x: number) => number>> = {
+  sqrt: Math.sqrt,
+  sin: Math.sin,
+  cos: Math.cos,
+  tan: Math.tan,
+  exp: Math.exp,
+  ln: Math.log,
+};
+
+/**
+ * An angle in radians: a number, or an expression string with + − * / ^, parentheses, unary
+ * minus, `pi`, `e`, the functions of docs/format.md, params from `scope`, and a `deg` suffix on
+ * a number. Recursive descent; `^` binds tighter than unary minus on its left operand.
+ */
+export function angleValue(v: unknown, scope: Readonly<Record<string, number>>): number {
+  if (typeof v === 'number') return v;
+  if (typeof v !== 'string') throw new Error(`unsupported angle ${JSON.stringify(v)}`);
+  const tokens = v.match(/\s*([0-9]*\.?[0-9]+(?:[eE][+-]?[0-9]+)?(?:deg)?|[A-Za-z_][A-Za-z0-9_]*|[-+*/^()])/g);
+  if (!tokens || tokens.join('').replace(/\s/g, '') !== v.replace(/\s/g, '')) throw new Error(`bad angle ${v}`);
+  const ts = tokens.map((t) => t.trim());
+  let i = 0;
+  const peek = (): string | undefined => ts[i];
+  const take = (): string => ts[i++]!;
+  const expr = (): number => {
+    let x = term();
+    while (peek() === '+' || peek() === '-') x = take() === '+' ? x + term() : x - term();
+    return x;
+  };
+  const term = (): number => {
+    let x = unary();
+    while (peek() === '*' || peek() === '/') x = take() === '*' ? x * unary() : x / unary();
+    return x;
+  };
+  const unary = (): number => (peek() === '-' ? (take(), -unary()) : peek() === '+' ? (take(), unary()) : power());
+  const power = (): number => {
+    const b = atom();
+    if (peek() === '^') {
+      take();
+      return b ** unary();
+    }
+    return b;
+  };
+  const atom = (): number => {
+    const t = take();
+    if (t === '(') {
+      const x = expr();
+      if (take() !== ')') throw new Error(`bad angle ${v}`);
+      return x;
+    }
+    if (/^[0-9.]/.test(t)) return t.endsWith('deg') ? (Number(t.slice(0, -3)) * Math.PI) / 180 : Number(t);
+    if (FUNCTIONS[t] && peek() === '(') {
+      take();
+      const x = expr();
+      if (take() !== ')') throw new Error(`bad angle ${v}`);
+      return FUNCTIONS[t]!(x);
+    }
+    if (scope[t] !== undefined) return scope[t]!;
+    if (t === 'pi') return Math.PI;
+    if (t === 'e') return Math.E;
+    throw new Error(`unknown name ${t} in angle ${v}`);
+  };
+  const x = expr();
+  if (i !== ts.length) throw new Error(`bad angle ${v}`);
+  return x;
+}
+
 /** A matrix entry: a number, or a complex string of the forms the generator emits. */
 function parseEntry(v: unknown): Cx {
   if (typeof v === 'number') return [v, 0];
@@ -710,8 +776,23 @@ export interface ReferenceResult {
   readonly applications: readonly RefApplication[];
 }
 
-/** Runs a circuit file text (and its device profile text, if it names one) by the contract. */
-export function referenceRun(circuitText: string, deviceText?: string): ReferenceResult {
+/** A composite gate's part: built-in gate name, local targets (first most significant) and matrix. */
+export interface CompositePart {
+  readonly name: string;
+  readonly targets: readonly number[];
+  readonly u: Mat;
+}
+
+/** A custom gate: its qubit count, parameter count, unitary from the angles, and (composites) its parts. */
+export interface CustomGate {
+  readonly k: number;
+  readonly params: number;
+  readonly unitary: (a: readonly number[]) => Mat;
+  readonly parts?: (a: readonly number[]) => CompositePart[];
+}
+
+/** Everything read from a circuit and its profile before the steps: register, merged profile, per-qubit properties, gate entries, custom gates, channels, noise kinds. */
+export function circuitSetup(circuitText: string, deviceText?: string) {
   const doc = YAML.parse(circuitText) as Dict;
   const labels: string[] | undefined = Array.isArray(doc.qubits) ? (doc.qubits as unknown[]).map(String) : undefined;
   const n = labels ? labels.length : (doc.qubits as number);
@@ -741,11 +822,13 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
 
   const thermal: (Thermal | undefined)[] = [];
   const readout: { z1: number; o0: number }[] = [];
+  const qubitProps: Dict[] = [];
   for (let q = 0; q < n; q++) {
     let props: Dict = { ...((pq.all as Dict | undefined) ?? {}) };
     for (const [k, v] of Object.entries(pq)) {
       if (k !== 'all' && keyQubit(k) === q) props = { ...props, ...(v as Dict) };
     }
+    qubitProps.push(props);
     if (props.t1 !== undefined || props.t2 !== undefined) {
       // reading of "missing t1 means no relaxation": t1 = ∞ (no population decay); a given t2
       // still dephases (fray reads it the same way; see the report)
@@ -780,16 +863,9 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
     return e;
   };
 
-  // --- angles: a number, or (the subset the generator emits) a parameter name or its negative
-  const circuitParams = (doc.params ?? {}) as Record<string, number>;
-  const angleValue = (v: unknown, scope: Record<string, number>): number => {
-    if (typeof v === 'number') return v;
-    if (typeof v === 'string') {
-      const m = /^\s*(-?)\s*([A-Za-z_][A-Za-z0-9_]*)\s*$/.exec(v);
-      if (m && scope[m[2]!] !== undefined) return (m[1] === '-' ? -1 : 1) * scope[m[2]!]!;
-    }
-    throw new Error(`unsupported angle ${JSON.stringify(v)}`);
-  };
+  // --- angles: numbers or expressions; params evaluated in order, each may use the earlier ones
+  const circuitParams: Record<string, number> = {};
+  for (const [k, v] of Object.entries((doc.params ?? {}) as Dict)) circuitParams[k] = angleValue(v, circuitParams);
   const stepAngles = (st: Dict, count: number, scope: Record<string, number>): number[] => {
     if (count === 0) return [];
     const raw = st.angles !== undefined ? (st.angles as unknown[]) : [st.angle];
@@ -799,7 +875,7 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
 
   // --- custom gates: matrix gates, and composite gates (product of their steps; their own
   // params, bound at the call site in order, shadow the circuit's)
-  const customGates = new Map<string, { k: number; params: number; unitary: (a: readonly number[]) => Mat }>();
+  const customGates = new Map<string, CustomGate>();
   for (const [name, def] of Object.entries((doc.gates ?? {}) as Dict)) {
     const g = def as Dict;
     if (g.matrix !== undefined) {
@@ -808,20 +884,19 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
     } else {
       const k = g.qubits as number;
       const pnames = (g.params ?? []) as string[];
-      const unitary = (a: readonly number[]): Mat => {
+      const parts = (a: readonly number[]): CompositePart[] => {
         const scope: Record<string, number> = { ...circuitParams };
         pnames.forEach((pn, i) => (scope[pn] = a[i]!));
-        let u = identity(1 << k);
-        for (const st of g.steps as Dict[]) {
+        return (g.steps as Dict[]).map((st) => {
           const gname = Object.keys(st).find((x) => x !== 'angle' && x !== 'angles' && x !== 'label')!;
           const bg = BUILTIN_GATES[gname]!;
-          const tg = Array.isArray(st[gname]) ? (st[gname] as number[]) : [st[gname] as number];
-          // later steps multiply from the left
-          u = matmul(embedFull(bg.matrix(stepAngles(st, bg.angles, scope)), tg, k), u);
-        }
-        return u;
+          const targets = Array.isArray(st[gname]) ? (st[gname] as number[]) : [st[gname] as number];
+          return { name: gname, targets, u: bg.matrix(stepAngles(st, bg.angles, scope)) };
+        });
       };
-      customGates.set(name, { k, params: pnames.length, unitary });
+      // later steps multiply from the left
+      const unitary = (a: readonly number[]): Mat => parts(a).reduce((u, p) => matmul(embedFull(p.u, p.targets, k), u), identity(1 << k));
+      customGates.set(name, { k, params: pnames.length, unitary, parts });
     }
   }
   const channels = new Map<string, { k: number; kraus: Mat[] }>();
@@ -893,13 +968,20 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
     return { ops };
   };
 
+  const listOf = (t: unknown): unknown[] => (t === 'all' ? Array.from({ length: n }, (_, i) => i) : Array.isArray(t) ? t : [t]);
+  return { doc, labels, n, D, ref, keyQubit, device, profile, schedulePolicy, idlePolicy, thermal, readout, qubitProps, entryFor, circuitParams, stepAngles, customGates, channels, kindOps, listOf };
+}
+
+/** Runs a circuit file text (and its device profile text, if it names one) by the contract. */
+export function referenceRun(circuitText: string, deviceText?: string): ReferenceResult {
+  const { doc, labels, n, D, ref, schedulePolicy, idlePolicy, thermal, readout, entryFor, circuitParams, stepAngles, customGates, kindOps, listOf } = circuitSetup(circuitText, deviceText);
+
   // --- steps → applications
   const apps: RefApplication[] = [];
   const measuredSet = new Set<number>();
   const warnings: string[] = [];
   const solvedErrors: number[] = [];
   let anyMeasure = false;
-  const listOf = (t: unknown): unknown[] => (t === 'all' ? Array.from({ length: n }, (_, i) => i) : Array.isArray(t) ? t : [t]);
   const MODIFIERS = new Set(['angle', 'angles', 'noise', 'for', 'on', 'label']);
 
   for (const step of doc.steps as Dict[]) {
@@ -1057,18 +1139,7 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
   ensemble[0]!.re[0] = 1;
   for (const a of apps) {
     if (a.kind === 'gate') {
-      const f = embed(a.unitary!, a.qubits, n);
-      ensemble = ensemble.map((v) => {
-        const re = new Float64Array(D);
-        const im = new Float64Array(D);
-        for (let r = 0; r < D; r++) {
-          for (const e of f[r]!) {
-            re[r] += e.re * v.re[e.c]! - e.im * v.im[e.c]!;
-            im[r] += e.re * v.im[e.c]! + e.im * v.re[e.c]!;
-          }
-        }
-        return { re, im };
-      });
+      ensemble = applyUnitaryToVectors(ensemble, a.unitary!, a.qubits, n);
     } else if (a.kind === 'reset') {
       const mask = 1 << (n - 1 - a.qubits[0]!);
       const next: { re: Float64Array; im: Float64Array }[] = [];
@@ -1096,73 +1167,14 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
 
   // --- results
   const measured = anyMeasure ? [...measuredSet].sort((x, y) => x - y) : Array.from({ length: n }, (_, i) => i);
-  const m = measured.length;
-  const marg = (diag: (i: number) => number): Float64Array => {
-    const out = new Float64Array(1 << m);
-    for (let i = 0; i < D; i++) {
-      let s = 0;
-      for (const q of measured) s = (s << 1) | bit(i, q, n);
-      out[s] += diag(i);
-    }
-    return out;
-  };
-  const pIdeal = marg((i) => ensemble.reduce((acc, v) => acc + v.re[i]! ** 2 + v.im[i]! ** 2, 0));
-  const pNoisy = marg((i) => rho.re[i * D + i]!);
-  // readout confusion on each measured qubit: P(read 1 | 0) = zero_as_one, P(read 0 | 1) = one_as_zero
-  let pMeas = Float64Array.from(pNoisy);
-  measured.forEach((q, j) => {
-    const { z1, o0 } = readout[q]!;
-    const next = new Float64Array(1 << m);
-    const bm = 1 << (m - 1 - j);
-    for (let s = 0; s < 1 << m; s++) {
-      const b = s & bm ? 1 : 0;
-      const s0 = s & ~bm;
-      const s1 = s | bm;
-      // P(read b) = Σ_a P(b | a) p(a)
-      next[s] = b === 0 ? (1 - z1) * pMeas[s0]! + o0 * pMeas[s1]! : z1 * pMeas[s0]! + (1 - o0) * pMeas[s1]!;
-    }
-    pMeas = next;
-  });
-  const probabilities = { ideal: {} as Record<string, number>, noisy: {} as Record<string, number>, measured: {} as Record<string, number> };
-  let fc = 0;
-  let tvd = 0;
-  for (let s = 0; s < 1 << m; s++) {
-    const ks = measured.length === 0 ? '' : Array.from({ length: m }, (_, j) => String((s >> (m - 1 - j)) & 1)).join('');
-    probabilities.ideal[ks] = pIdeal[s]!;
-    probabilities.noisy[ks] = pNoisy[s]!;
-    probabilities.measured[ks] = pMeas[s]!;
-    fc += Math.sqrt(Math.max(0, pIdeal[s]!) * Math.max(0, pMeas[s]!));
-    tvd += 0.5 * Math.abs(pIdeal[s]! - pMeas[s]!);
-  }
+  const { probabilities, classical, tvd } = terminalDistributions(measured, n, ensemble, rho, readout);
 
   let purity = 0;
   for (let i = 0; i < D * D; i++) purity += rho.re[i]! ** 2 + rho.im[i]! ** 2;
 
   const fstate = ensembleFidelity(ensemble, rho);
 
-  let observables: Record<string, { ideal: number; noisy: number }> | undefined;
-  if (Array.isArray(doc.observe)) {
-    observables = {};
-    for (const ps of doc.observe as string[]) {
-      let P = identity(1);
-      for (const ch of ps) P = kron(P, ch === 'X' ? PAULI_X : ch === 'Y' ? PAULI_Y : ch === 'Z' ? PAULI_Z : ID2);
-      let noisy = 0;
-      for (let i = 0; i < D; i++) for (let j = 0; j < D; j++) noisy += P.re[i * D + j]! * rho.re[j * D + i]! - P.im[i * D + j]! * rho.im[j * D + i]!;
-      let ideal = 0;
-      for (const v of ensemble) {
-        for (let i = 0; i < D; i++) {
-          let pr = 0;
-          let pi = 0;
-          for (let j = 0; j < D; j++) {
-            pr += P.re[i * D + j]! * v.re[j]! - P.im[i * D + j]! * v.im[j]!;
-            pi += P.re[i * D + j]! * v.im[j]! + P.im[i * D + j]! * v.re[j]!;
-          }
-          ideal += v.re[i]! * pr + v.im[i]! * pi;
-        }
-      }
-      observables[ps] = { ideal, noisy };
-    }
-  }
+  const observables = observablesOf(doc.observe, rho, ensemble);
 
   return {
     name: (doc.name as string | undefined) ?? null,
@@ -1172,7 +1184,7 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
     schedule: schedulePolicy,
     duration_ns: T,
     probabilities,
-    fidelity: { state: fstate, classical: fc * fc },
+    fidelity: { state: fstate, classical },
     tvd,
     purity,
     ...(observables ? { observables } : {}),
@@ -1322,4 +1334,100 @@ export function embedFull(g: Mat, targets: readonly number[], n: number): Mat {
     }
   }
   return out;
+}
+
+// ---------------------------------------------------------------------------------------
+// Results shared by the version-1 and version-2 oracles
+// ---------------------------------------------------------------------------------------
+
+/** ψ → (U on `qubits`)·ψ for every member of a pure-state ensemble. */
+export function applyUnitaryToVectors(ensemble: readonly Vec[], u: Mat, qubits: readonly number[], n: number): Vec[] {
+  const D = 1 << n;
+  const f = embed(u, qubits, n);
+  return ensemble.map((v) => {
+    const re = new Float64Array(D);
+    const im = new Float64Array(D);
+    for (let r = 0; r < D; r++) {
+      for (const e of f[r]!) {
+        re[r] += e.re * v.re[e.c]! - e.im * v.im[e.c]!;
+        im[r] += e.re * v.im[e.c]! + e.im * v.re[e.c]!;
+      }
+    }
+    return { re, im };
+  });
+}
+
+/**
+ * The distributions over the measured qubits (bitstring character j = measured[j]): ideal from
+ * the ensemble Σ|v⟩⟨v|, noisy from ρ's diagonal, measured = noisy after each qubit's readout
+ * confusion; with fidelity.classical = (Σ√(p_ideal·p_measured))² and tvd = ½Σ|p_ideal − p_measured|.
+ */
+export function terminalDistributions(
+  measured: readonly number[],
+  n: number,
+  ensemble: readonly Vec[],
+  rho: Mat,
+  readout: readonly { z1: number; o0: number }[],
+): { probabilities: { ideal: Record<string, number>; noisy: Record<string, number>; measured: Record<string, number> }; classical: number; tvd: number } {
+  const D = 1 << n;
+  const m = measured.length;
+  const marg = (diag: (i: number) => number): Float64Array => {
+    const out = new Float64Array(1 << m);
+    for (let i = 0; i < D; i++) {
+      let s = 0;
+      for (const q of measured) s = (s << 1) | bit(i, q, n);
+      out[s] += diag(i);
+    }
+    return out;
+  };
+  const pIdeal = marg((i) => ensemble.reduce((acc, v) => acc + v.re[i]! ** 2 + v.im[i]! ** 2, 0));
+  const pNoisy = marg((i) => rho.re[i * D + i]!);
+  // readout confusion on each measured qubit: P(read 1 | 0) = zero_as_one, P(read 0 | 1) = one_as_zero
+  let pMeas = Float64Array.from(pNoisy);
+  measured.forEach((q, j) => {
+    const { z1, o0 } = readout[q]!;
+    const next = new Float64Array(1 << m);
+    const bm = 1 << (m - 1 - j);
+    for (let s = 0; s < 1 << m; s++) {
+      const b = s & bm ? 1 : 0;
+      const s0 = s & ~bm;
+      const s1 = s | bm;
+      // P(read b) = Σ_a P(b | a) p(a)
+      next[s] = b === 0 ? (1 - z1) * pMeas[s0]! + o0 * pMeas[s1]! : z1 * pMeas[s0]! + (1 - o0) * pMeas[s1]!;
+    }
+    pMeas = next;
+  });
+  const probabilities = { ideal: {} as Record<string, number>, noisy: {} as Record<string, number>, measured: {} as Record<string, number> };
+  let fc = 0;
+  let tvd = 0;
+  for (let s = 0; s < 1 << m; s++) {
+    const ks = measured.length === 0 ? '' : Array.from({ length: m }, (_, j) => String((s >> (m - 1 - j)) & 1)).join('');
+    probabilities.ideal[ks] = pIdeal[s]!;
+    probabilities.noisy[ks] = pNoisy[s]!;
+    probabilities.measured[ks] = pMeas[s]!;
+    fc += Math.sqrt(Math.max(0, pIdeal[s]!) * Math.max(0, pMeas[s]!));
+    tvd += 0.5 * Math.abs(pIdeal[s]! - pMeas[s]!);
+  }
+
+  return { probabilities, classical: fc * fc, tvd };
+}
+
+/** ⟨P⟩ = Tr(Pρ) (noisy) and Σ_v ⟨v|P|v⟩ (ideal) for each Pauli string of `observe` (qubit 0 leftmost). */
+export function observablesOf(observe: unknown, rho: Mat, ensemble: readonly Vec[]): Record<string, { ideal: number; noisy: number }> | undefined {
+  const D = rho.d;
+  let observables: Record<string, { ideal: number; noisy: number }> | undefined;
+  if (Array.isArray(observe)) {
+    observables = {};
+    for (const ps of observe as string[]) {
+      let P = identity(1);
+      for (const ch of ps) P = kron(P, ch === 'X' ? PAULI_X : ch === 'Y' ? PAULI_Y : ch === 'Z' ? PAULI_Z : ID2);
+      let noisy = 0;
+      for (let i = 0; i < D; i++) for (let j = 0; j < D; j++) noisy += P.re[i * D + j]! * rho.re[j * D + i]! - P.im[i * D + j]! * rho.im[j * D + i]!;
+      let ideal = 0;
+      for (const v of ensemble) ideal += sandwich(v, P, v)[0];
+      observables[ps] = { ideal, noisy };
+    }
+  }
+
+  return observables;
 }

@@ -50,35 +50,25 @@
  *  R14 `simultaneous: true` in the `measure` entry (fray's key): each measure step is preceded
  *      by a barrier over its qubits, in both schedules (ALAP mirrors it like any barrier).
  */
-import YAML from 'yaml';
-import type { Dict, Mat, Op, Thermal, Vec } from './reference.js';
+import type { Dict, Mat, Op, RefApplication, ReferenceResult, Vec } from './reference.js';
 import {
   BUILTIN_GATES,
-  ID2,
-  NOISE_ORDER,
-  ONE,
-  PAULI_X,
-  PAULI_Y,
-  PAULI_Z,
-  ZERO,
+  NOISE_KEYS,
+  angleValue,
   applyKraus,
   applyOp,
   applyThermal,
+  applyUnitaryToVectors,
   bit,
+  circuitSetup,
   durationNs,
-  embed,
-  embedFull,
   ensembleFidelity,
   fromRows,
-  identity,
-  kron,
-  log2int,
-  matmul,
-  mergeEntry,
-  parseMatrix,
+  observablesOf,
   remapOp,
   scale,
   solveErrorByBisection,
+  terminalDistributions,
   zeros,
 } from './reference.js';
 
@@ -94,72 +84,6 @@ export function frequencyHz(text: unknown): number {
   const m = /^\s*([+-]?[0-9]*\.?[0-9]+(?:[eE][+-]?[0-9]+)?)\s*(Hz|kHz|MHz|GHz)\s*$/.exec(text);
   if (!m) throw new Error(`bad frequency ${text}`);
   return Number(m[1]) * UNIT_HZ[m[2]!]!;
-}
-
-const FUNCTIONS: Readonly<Record<string, (x: number) => number>> = {
-  sqrt: Math.sqrt,
-  sin: Math.sin,
-  cos: Math.cos,
-  tan: Math.tan,
-  exp: Math.exp,
-  ln: Math.log,
-};
-
-/**
- * An angle in radians: a number, or an expression string with + − * / ^, parentheses, unary
- * minus, `pi`, `e`, the functions of docs/format.md, params from `scope`, and a `deg` suffix on
- * a number. Recursive descent; `^` binds tighter than unary minus on its left operand.
- */
-export function angleValue(v: unknown, scope: Readonly<Record<string, number>>): number {
-  if (typeof v === 'number') return v;
-  if (typeof v !== 'string') throw new Error(`unsupported angle ${JSON.stringify(v)}`);
-  const tokens = v.match(/\s*([0-9]*\.?[0-9]+(?:[eE][+-]?[0-9]+)?(?:deg)?|[A-Za-z_][A-Za-z0-9_]*|[-+*/^()])/g);
-  if (!tokens || tokens.join('').replace(/\s/g, '') !== v.replace(/\s/g, '')) throw new Error(`bad angle ${v}`);
-  const ts = tokens.map((t) => t.trim());
-  let i = 0;
-  const peek = (): string | undefined => ts[i];
-  const take = (): string => ts[i++]!;
-  const expr = (): number => {
-    let x = term();
-    while (peek() === '+' || peek() === '-') x = take() === '+' ? x + term() : x - term();
-    return x;
-  };
-  const term = (): number => {
-    let x = unary();
-    while (peek() === '*' || peek() === '/') x = take() === '*' ? x * unary() : x / unary();
-    return x;
-  };
-  const unary = (): number => (peek() === '-' ? (take(), -unary()) : peek() === '+' ? (take(), unary()) : power());
-  const power = (): number => {
-    const b = atom();
-    if (peek() === '^') {
-      take();
-      return b ** unary();
-    }
-    return b;
-  };
-  const atom = (): number => {
-    const t = take();
-    if (t === '(') {
-      const x = expr();
-      if (take() !== ')') throw new Error(`bad angle ${v}`);
-      return x;
-    }
-    if (/^[0-9.]/.test(t)) return t.endsWith('deg') ? (Number(t.slice(0, -3)) * Math.PI) / 180 : Number(t);
-    if (FUNCTIONS[t] && peek() === '(') {
-      take();
-      const x = expr();
-      if (take() !== ')') throw new Error(`bad angle ${v}`);
-      return FUNCTIONS[t]!(x);
-    }
-    if (scope[t] !== undefined) return scope[t]!;
-    if (t === 'pi') return Math.PI;
-    if (t === 'e') return Math.E;
-    throw new Error(`unknown name ${t} in angle ${v}`);
-  };
-  const x = expr();
-  if (i !== ts.length) throw new Error(`bad angle ${v}`);
-  return x;
 }
 
 // ---------------------------------------------------------------------------------------
@@ -221,23 +145,14 @@ function applyDrift(rho: Mat, terms: readonly DriftTerm[], tau: number, n: numbe
 // The run
 // ---------------------------------------------------------------------------------------
 
-/** One scheduled application (times in ns), version 2. */
-export interface V2Application {
-  readonly kind: 'gate' | 'idle' | 'barrier' | 'measure' | 'reset' | 'noise';
-  readonly name: string;
-  readonly qubits: readonly number[];
-  readonly duration: number;
+/** One scheduled application (times in ns), version 2: the version-1 fields plus its step and the classical bits it reads or writes. */
+export interface V2Application extends RefApplication {
   /** Index of the step it comes from (0-based, in file order). */
   readonly step: number;
-  readonly unitary?: Mat;
-  /** The noise channel after U (gate), after the reset, or the whole noise step; local numbering. */
-  readonly ops?: readonly Op[];
   /** `if`: every listed bit must hold its value. */
   readonly cond?: Readonly<Record<string, 0 | 1>>;
   /** The bit a record-mode measurement writes. */
   readonly into?: string;
-  start: number;
-  end: number;
 }
 
 /** A coupling-map warning the contract requires: gate, qubits, step (0-based). */
@@ -247,35 +162,20 @@ export interface CouplingWarning {
   readonly step: number;
 }
 
-/** The oracle's version-2 result, named after the keys of `fray run --json`. */
-export interface ReferenceResultV2 {
-  readonly name: string | null;
-  readonly qubits: number;
-  readonly measured: number[];
-  readonly measured_labels?: string[];
+/** The oracle's version-2 result, named after the keys of `fray run --json`: the version-1 result plus the keys below. */
+export interface ReferenceResultV2 extends Omit<ReferenceResult, 'applications'> {
   /** Record mode: the record's bit names in order (undefined outside record mode). */
   readonly bits?: string[];
-  readonly schedule: 'asap' | 'alap';
-  readonly duration_ns: number;
-  readonly probabilities: { ideal: Record<string, number>; noisy: Record<string, number>; measured: Record<string, number> };
-  readonly fidelity: { state: number; classical: number };
-  readonly tvd: number;
-  readonly purity: number;
   /** Per-qubit Bloch vectors [⟨X⟩, ⟨Y⟩, ⟨Z⟩], of the ideal and of the noisy state (Σ_r ρ_r in record mode). */
   readonly bloch: { ideal: number[][]; noisy: number[][] };
-  readonly observables?: Record<string, { ideal: number; noisy: number }>;
-  /** Gates whose `error:` was already exceeded by the rest of their channel (p = 0). */
-  readonly limitedErrors: string[];
   /** One per gate application whose qubits the coupling map does not connect. */
   readonly couplingWarnings: CouplingWarning[];
-  /** The depolarizing p solved for every `error:` application, in program order. */
-  readonly solvedErrors: number[];
   readonly applications: readonly V2Application[];
   /** The drift terms in force (Hz). */
   readonly drift: readonly DriftTerm[];
 }
 
-const NOISE_KEYS_V2 = new Set<string>([...NOISE_ORDER, 'error', 'coherent']);
+const NOISE_KEYS_V2 = new Set<string>([...NOISE_KEYS, 'coherent']);
 
 /** The noise-kind fields of a profile entry (version 2: `coherent` included). */
 function pickKindsV2(e: Dict): Dict {
@@ -291,48 +191,17 @@ function pairKey(a: number, b: number): string {
 
 /** Runs a version-2 circuit file text (and its device profile text, if it names one) by the contract of issues 7 and 8. */
 export function referenceRunV2(circuitText: string, deviceText?: string): ReferenceResultV2 {
-  const doc = YAML.parse(circuitText) as Dict;
-  const labels: string[] | undefined = Array.isArray(doc.qubits) ? (doc.qubits as unknown[]).map(String) : undefined;
-  const n = labels ? labels.length : (doc.qubits as number);
-  const D = 1 << n;
+  const { doc, labels, n, D, ref, keyQubit, device, schedulePolicy, idlePolicy, thermal, readout, qubitProps, entryFor, circuitParams, stepAngles, customGates, kindOps, listOf } =
+    circuitSetup(circuitText, deviceText);
 
-  const ref = (r: unknown): number => {
-    if (labels && (typeof r === 'string' || typeof r === 'number') && labels.includes(String(r))) return labels.indexOf(String(r));
-    if (typeof r === 'number' && Number.isInteger(r) && r >= 0 && r < n) return r;
-    if (typeof r === 'string' && /^[0-9]+$/.test(r) && Number(r) < n) return Number(r);
-    throw new Error(`unknown qubit ${String(r)}`);
-  };
-  const keyQubit = (k: string): number | undefined => {
-    if (labels && labels.includes(k)) return labels.indexOf(k);
-    if (/^[0-9]+$/.test(k)) return Number(k);
-    return undefined;
-  };
-
-  // --- profile: version-1 merge, plus couplings merged per pair and per field
-  if (doc.device !== undefined && deviceText === undefined) throw new Error('device profile text missing');
-  const device = doc.device !== undefined ? (YAML.parse(deviceText!) as Dict) : undefined;
-  const inline = doc.noise as Dict | undefined;
+  // --- couplings: device then inline, merged per (unordered) pair and per field
   const d0 = device ?? {};
-  const i0 = inline ?? {};
-  const profile: Dict = { ...d0, ...i0 };
-  {
-    const dq = (d0.qubits ?? {}) as Dict;
-    const iq = (i0.qubits ?? {}) as Dict;
-    const qubits: Dict = {};
-    for (const k of new Set([...Object.keys(dq), ...Object.keys(iq)])) qubits[k] = { ...((dq[k] as Dict | undefined) ?? {}), ...((iq[k] as Dict | undefined) ?? {}) };
-    profile.qubits = qubits;
-    const dg = (d0.gates ?? {}) as Dict;
-    const ig = (i0.gates ?? {}) as Dict;
-    const gates: Dict = {};
-    for (const k of new Set([...Object.keys(dg), ...Object.keys(ig)])) gates[k] = mergeEntry(dg[k] as Dict | undefined, ig[k] as Dict | undefined);
-    profile.gates = gates;
-  }
+  const i0 = (doc.noise as Dict | undefined) ?? {};
   const hasCouplings = d0.couplings !== undefined || i0.couplings !== undefined;
   const couplings = new Map<string, Dict>();
   for (const [src, inDevice] of [[d0, true], [i0, false]] as const) {
     for (const [key, v] of Object.entries((src.couplings ?? {}) as Dict)) {
-      const toks = key.trim().split(/\s+/);
-      const qs = toks.map((t) => keyQubit(t));
+      const qs = key.trim().split(/\s+/).map((tok) => keyQubit(tok));
       if (qs.some((q) => q === undefined || q >= n)) {
         if (inDevice) continue; // beyond the register: skipped in a device file
         throw new Error(`coupling ${key} beyond the register`);
@@ -341,93 +210,15 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
       couplings.set(pk, { ...(couplings.get(pk) ?? {}), ...((v as Dict | null) ?? {}) });
     }
   }
-  const schedulePolicy = (profile.schedule as 'asap' | 'alap' | undefined) ?? 'asap';
-  const idlePolicy = (profile.idle as 'thermal' | 'none' | undefined) ?? 'thermal';
-  const pq = (profile.qubits ?? {}) as Dict;
-  const pg = (profile.gates ?? {}) as Dict;
-
-  const thermal: (Thermal | undefined)[] = [];
-  const readout: { z1: number; o0: number }[] = [];
+  // --- drift terms: detuning per qubit (its merged entry), zz per coupled pair
   const drift: DriftTerm[] = [];
-  for (let q = 0; q < n; q++) {
-    let props: Dict = { ...((pq.all as Dict | undefined) ?? {}) };
-    for (const [k, v] of Object.entries(pq)) if (k !== 'all' && keyQubit(k) === q) props = { ...props, ...(v as Dict) };
-    if (props.t1 !== undefined || props.t2 !== undefined) {
-      const t1 = props.t1 !== undefined ? durationNs(props.t1) : Infinity;
-      const t2 = props.t2 !== undefined ? durationNs(props.t2) : 2 * t1;
-      thermal.push({ t1, t2, excited: (props.excited as number | undefined) ?? 0 });
-    } else thermal.push(undefined);
-    const ro = props.readout;
-    if (typeof ro === 'number') readout.push({ z1: ro, o0: ro });
-    else if (ro && typeof ro === 'object') {
-      const r = ro as Dict;
-      readout.push({ z1: (r.zero_as_one as number | undefined) ?? 0, o0: (r.one_as_zero as number | undefined) ?? 0 });
-    } else readout.push({ z1: 0, o0: 0 });
+  qubitProps.forEach((props, q) => {
     if (props.detuning !== undefined) drift.push({ a: q, hz: frequencyHz(props.detuning) });
-  }
+  });
   for (const [pk, e] of couplings) {
     if (e.zz === undefined) continue;
     const [a, b] = pk.split(' ').map(Number) as [number, number];
     drift.push({ a, b, hz: frequencyHz(e.zz) });
-  }
-
-  const canon = (g: string): string => (g === 'id' ? 'i' : g);
-  const entryFor = (name: string, qubits: readonly number[]): Dict => {
-    let e: Dict = {};
-    if (name !== 'measure' && name !== 'reset') e = mergeEntry(e, pg.all as Dict | undefined);
-    for (const [key, v] of Object.entries(pg)) if (canon(key) === canon(name)) e = mergeEntry(e, v as Dict);
-    for (const [key, v] of Object.entries(pg)) {
-      const tokens = key.trim().split(/\s+/);
-      if (tokens.length < 2 || canon(tokens[0]!) !== canon(name)) continue;
-      const qs = tokens.slice(1).map((t) => keyQubit(t));
-      if (qs.length === qubits.length && qs.every((x, i) => x === qubits[i])) e = mergeEntry(e, v as Dict);
-    }
-    return e;
-  };
-
-  // --- params, custom gates, channels
-  const circuitParams: Record<string, number> = {};
-  for (const [k, v] of Object.entries((doc.params ?? {}) as Dict)) circuitParams[k] = angleValue(v, circuitParams);
-  const stepAngles = (st: Dict, count: number, scope: Record<string, number>): number[] => {
-    if (count === 0) return [];
-    const raw = st.angles !== undefined ? (st.angles as unknown[]) : [st.angle];
-    if (raw.length !== count) throw new Error(`expected ${count} angles`);
-    return raw.map((v) => angleValue(v, scope));
-  };
-  /** A composite gate's parts: built-in gate name, local targets and matrix, in order. */
-  interface Part {
-    readonly name: string;
-    readonly targets: readonly number[];
-    readonly u: Mat;
-  }
-  const customGates = new Map<string, { k: number; params: number; unitary: (a: readonly number[]) => Mat; parts?: (a: readonly number[]) => Part[] }>();
-  for (const [name, def] of Object.entries((doc.gates ?? {}) as Dict)) {
-    const g = def as Dict;
-    if (g.matrix !== undefined) {
-      const u = parseMatrix(g.matrix);
-      customGates.set(name, { k: log2int(u.d), params: 0, unitary: () => u });
-    } else {
-      const k = g.qubits as number;
-      const pnames = (g.params ?? []) as string[];
-      const parts = (a: readonly number[]): Part[] => {
-        const scope: Record<string, number> = { ...circuitParams };
-        pnames.forEach((pn, i) => (scope[pn] = a[i]!));
-        return (g.steps as Dict[]).map((st) => {
-          const gname = Object.keys(st).find((x) => x !== 'angle' && x !== 'angles' && x !== 'label')!;
-          const bg = BUILTIN_GATES[gname]!;
-          const targets = Array.isArray(st[gname]) ? (st[gname] as number[]) : [st[gname] as number];
-          return { name: gname, targets, u: bg.matrix(stepAngles(st, bg.angles, scope)) };
-        });
-      };
-      // later parts multiply from the left
-      const unitary = (a: readonly number[]): Mat => parts(a).reduce((u, p) => matmul(embedFull(p.u, p.targets, k), u), identity(1 << k));
-      customGates.set(name, { k, params: pnames.length, unitary, parts });
-    }
-  }
-  const channels = new Map<string, { k: number; kraus: Mat[] }>();
-  for (const [name, def] of Object.entries((doc.channels ?? {}) as Dict)) {
-    const kraus = ((def as Dict).kraus as unknown[]).map(parseMatrix);
-    channels.set(name, { k: log2int(kraus[0]!.d), kraus });
   }
 
   /** The coherent part of a set of kinds on k local qubits: a rotation on each, then rzz(d) on a pair. */
@@ -445,69 +236,10 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
     return ops;
   };
 
-  /** The version-1 noise kinds (not `coherent`) on k local qubits, in contract order. */
-  const kindOps = (kinds: Dict, k: number, allowError: boolean): { ops: Op[]; error?: number } => {
-    const ops: Op[] = [];
-    const each = (kraus: Mat[]): void => {
-      for (let q = 0; q < k; q++) ops.push({ type: 'kraus', kraus, targets: [q] });
-    };
-    const all = Array.from({ length: k }, (_, i) => i);
-    const flip = (p: Mat, v: number): Mat[] => [scale(ID2, Math.sqrt(1 - v)), scale(p, Math.sqrt(v))];
-    for (const kind of NOISE_ORDER) {
-      const v = kinds[kind];
-      if (v === undefined) continue;
-      switch (kind) {
-        case 'amplitude_damping': {
-          const g = v as number;
-          each([fromRows([[ONE, ZERO], [ZERO, [Math.sqrt(1 - g), 0]]]), fromRows([[ZERO, [Math.sqrt(g), 0]], [ZERO, ZERO]])]);
-          break;
-        }
-        case 'phase_damping': {
-          const l = v as number;
-          each([fromRows([[ONE, ZERO], [ZERO, [Math.sqrt(1 - l), 0]]]), fromRows([[ZERO, ZERO], [ZERO, [Math.sqrt(l), 0]]])]);
-          break;
-        }
-        case 'bit_flip':
-          each(flip(PAULI_X, v as number));
-          break;
-        case 'phase_flip':
-          each(flip(PAULI_Z, v as number));
-          break;
-        case 'bit_phase_flip':
-          each(flip(PAULI_Y, v as number));
-          break;
-        case 'pauli': {
-          const pv = v as Dict;
-          const x = (pv.x as number | undefined) ?? 0;
-          const y = (pv.y as number | undefined) ?? 0;
-          const z = (pv.z as number | undefined) ?? 0;
-          each([scale(ID2, Math.sqrt(Math.max(0, 1 - x - y - z))), scale(PAULI_X, Math.sqrt(x)), scale(PAULI_Y, Math.sqrt(y)), scale(PAULI_Z, Math.sqrt(z))]);
-          break;
-        }
-        case 'channel': {
-          const ch = channels.get(v as string);
-          if (!ch) throw new Error(`unknown channel ${String(v)}`);
-          if (ch.k === 1) each(ch.kraus);
-          else if (ch.k === k) ops.push({ type: 'kraus', kraus: ch.kraus, targets: all });
-          else throw new Error(`channel ${String(v)} has ${ch.k} qubits, application has ${k}`);
-          break;
-        }
-        case 'depolarizing':
-          ops.push({ type: 'depolarizing', p: v as number, targets: all });
-          break;
-      }
-    }
-    if (kinds.error !== undefined) {
-      if (!allowError) throw new Error('error on a non-gate');
-      return { ops, error: kinds.error as number };
-    }
-    return { ops };
-  };
-
   // --- steps → applications
   const apps: V2Application[] = [];
   const measuredSet = new Set<number>();
-  const limitedErrors: string[] = [];
+  const warnings: string[] = [];
   const solvedErrors: number[] = [];
   const couplingWarnings: CouplingWarning[] = [];
   let anyMeasure = false;
@@ -515,7 +247,6 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
   const recordMode = steps.some((s) => s.measure !== undefined && s.into !== undefined);
   const bitOrder: string[] = Array.isArray(doc.bits) ? (doc.bits as unknown[]).map(String) : [];
   const declaredBits = Array.isArray(doc.bits);
-  const listOf = (t: unknown): unknown[] => (t === 'all' ? Array.from({ length: n }, (_, i) => i) : Array.isArray(t) ? t : [t]);
   const MODIFIERS = new Set(['angle', 'angles', 'noise', 'for', 'on', 'label', 'into', 'if']);
   const condOf = (st: Dict): Record<string, 0 | 1> | undefined => {
     if (st.if === undefined) return undefined;
@@ -608,7 +339,7 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
       if (kn.error !== undefined) {
         const { p, limited } = solveErrorByBisection(u, ops, k, kn.error);
         solvedErrors.push(p);
-        if (limited) limitedErrors.push(`${name} ${g.join(' ')}: error ${kn.error} below the rest of its channel`);
+        if (limited) warnings.push(`${name} ${g.join(' ')}: error ${kn.error} below the rest of its channel`);
         if (p > 0) ops.push({ type: 'depolarizing', p, targets: Array.from({ length: k }, (_, i) => i) });
       }
       apps.push({ ...base, kind: 'gate', name, qubits: g, duration: dur, unitary: u, ops });
@@ -831,24 +562,7 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
     const norm2 = (w: Vec): number => w.re.reduce((s, x, i) => s + x * x + w.im[i]! ** 2, 0);
     for (const a of [...apps].filter(isOperation).sort((x, y) => x.start - y.start || apps.indexOf(x) - apps.indexOf(y))) {
       if (a.kind === 'gate') {
-        const f = embed(a.unitary!, a.qubits, n);
-        for (const [key, vs] of branches) {
-          if (!holds(key, a.cond)) continue;
-          branches.set(
-            key,
-            vs.map((v) => {
-              const re = new Float64Array(D);
-              const im = new Float64Array(D);
-              for (let r = 0; r < D; r++) {
-                for (const e of f[r]!) {
-                  re[r] += e.re * v.re[e.c]! - e.im * v.im[e.c]!;
-                  im[r] += e.re * v.im[e.c]! + e.im * v.re[e.c]!;
-                }
-              }
-              return { re, im };
-            }),
-          );
-        }
+        for (const [key, vs] of branches) if (holds(key, a.cond)) branches.set(key, applyUnitaryToVectors(vs, a.unitary!, a.qubits, n));
       } else if (a.kind === 'reset' || (a.kind === 'measure' && recordMode)) {
         const mask = 1 << (n - 1 - a.qubits[0]!);
         const next = new Map<string, Vec[]>();
@@ -925,38 +639,10 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
   } else {
     measured = anyMeasure ? [...measuredSet].sort((x, y) => x - y) : Array.from({ length: n }, (_, i) => i);
     const rho = full.get(emptyKey)!;
-    const m = measured.length;
-    const marg = (diag: (i: number) => number): Float64Array => {
-      const out = new Float64Array(1 << m);
-      for (let i = 0; i < D; i++) {
-        let s = 0;
-        for (const q of measured) s = (s << 1) | bit(i, q, n);
-        out[s] += diag(i);
-      }
-      return out;
-    };
-    const pIdeal = marg((i) => allIdeal.reduce((acc, v) => acc + v.re[i]! ** 2 + v.im[i]! ** 2, 0));
-    const pNoisy = marg((i) => rho.re[i * D + i]!);
-    let pMeas = Float64Array.from(pNoisy);
-    measured.forEach((q, j) => {
-      const { z1, o0 } = readout[q]!;
-      const next = new Float64Array(1 << m);
-      const bm = 1 << (m - 1 - j);
-      for (let s = 0; s < 1 << m; s++) {
-        const s0 = s & ~bm;
-        const s1 = s | bm;
-        next[s] = s & bm ? z1 * pMeas[s0]! + (1 - o0) * pMeas[s1]! : (1 - z1) * pMeas[s0]! + o0 * pMeas[s1]!;
-      }
-      pMeas = next;
-    });
-    for (let s = 0; s < 1 << m; s++) {
-      const key = keyOf(s, m);
-      probabilities.ideal[key] = pIdeal[s]!;
-      probabilities.noisy[key] = pNoisy[s]!;
-      probabilities.measured[key] = pMeas[s]!;
-      fc += Math.sqrt(Math.max(0, pIdeal[s]!) * Math.max(0, pMeas[s]!));
-      tvd += 0.5 * Math.abs(pIdeal[s]! - pMeas[s]!);
-    }
+    const d = terminalDistributions(measured, n, allIdeal, rho, readout);
+    Object.assign(probabilities, d.probabilities);
+    fc = Math.sqrt(d.classical);
+    tvd = d.tvd;
     fstate = ensembleFidelity(allIdeal, rho);
   }
 
@@ -995,29 +681,7 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
     noisy: blochOf((r, c) => [rhoSum.re[r * D + c]!, rhoSum.im[r * D + c]!]),
   };
 
-  let observables: Record<string, { ideal: number; noisy: number }> | undefined;
-  if (Array.isArray(doc.observe)) {
-    observables = {};
-    for (const ps of doc.observe as string[]) {
-      let P = identity(1);
-      for (const ch of ps) P = kron(P, ch === 'X' ? PAULI_X : ch === 'Y' ? PAULI_Y : ch === 'Z' ? PAULI_Z : ID2);
-      let noisy = 0;
-      for (let i = 0; i < D; i++) for (let j = 0; j < D; j++) noisy += P.re[i * D + j]! * rhoSum.re[j * D + i]! - P.im[i * D + j]! * rhoSum.im[j * D + i]!;
-      let idealV = 0;
-      for (const v of allIdeal) {
-        for (let i = 0; i < D; i++) {
-          let pr = 0;
-          let pim = 0;
-          for (let j = 0; j < D; j++) {
-            pr += P.re[i * D + j]! * v.re[j]! - P.im[i * D + j]! * v.im[j]!;
-            pim += P.re[i * D + j]! * v.im[j]! + P.im[i * D + j]! * v.re[j]!;
-          }
-          idealV += v.re[i]! * pr + v.im[i]! * pim;
-        }
-      }
-      observables[ps] = { ideal: idealV, noisy };
-    }
-  }
+  const observables = observablesOf(doc.observe, rhoSum, allIdeal);
 
   return {
     name: (doc.name as string | undefined) ?? null,
@@ -1033,7 +697,7 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
     purity,
     bloch,
     ...(observables ? { observables } : {}),
-    limitedErrors,
+    warnings,
     couplingWarnings,
     solvedErrors,
     applications: apps,
