@@ -604,7 +604,7 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
   const allIdeal = [...ideal.values()].flat();
 
   const probabilities = { ideal: {} as Record<string, number>, noisy: {} as Record<string, number>, measured: {} as Record<string, number> };
-  let fc = 0;
+  let classical: number;
   let tvd = 0;
   let fstate: number;
   let measured: number[];
@@ -617,6 +617,7 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
   if (recordMode) {
     measured = [];
     const m = bitOrder.length;
+    let fc = 0;
     for (let s = 0; s < 1 << m; s++) {
       const key = keyOf(s, m);
       const pi = (ideal.get(key) ?? []).reduce((acc, v) => acc + v.re.reduce((x, y, i) => x + y * y + v.im[i]! ** 2, 0), 0);
@@ -628,6 +629,7 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
       fc += Math.sqrt(Math.max(0, pi) * Math.max(0, pm));
       tvd += 0.5 * Math.abs(pi - pm);
     }
+    classical = fc * fc;
     // fidelity.state = (Σ_r Tr√(√σ_r ρ_r √σ_r))², over the records of the run with readout error
     let root = 0;
     for (const [key, rho] of full) {
@@ -641,7 +643,7 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
     const rho = full.get(emptyKey)!;
     const d = terminalDistributions(measured, n, allIdeal, rho, readout);
     Object.assign(probabilities, d.probabilities);
-    fc = Math.sqrt(d.classical);
+    classical = d.classical;
     tvd = d.tvd;
     fstate = ensembleFidelity(allIdeal, rho);
   }
@@ -692,7 +694,7 @@ export function referenceRunV2(circuitText: string, deviceText?: string): Refere
     schedule: schedulePolicy,
     duration_ns: T,
     probabilities,
-    fidelity: { state: fstate, classical: fc * fc },
+    fidelity: { state: fstate, classical },
     tvd,
     purity,
     bloch,
