@@ -51,6 +51,10 @@ export interface RunResult {
   readonly labels?: readonly string[];
   readonly measured: readonly number[];
   readonly measured_labels?: readonly string[];
+  /** Device qubit of each circuit qubit, when the run was placed with a layout. */
+  readonly layout?: readonly number[];
+  /** The uniform noise scale C, when not 1. */
+  readonly noise_scale?: number;
   readonly schedule: 'asap' | 'alap';
   readonly duration_ns: number;
   readonly probabilities: Figures['probabilities'];
@@ -142,6 +146,12 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
   }
   const schedule = scheduleCircuit(circuit, profile);
   const program = buildProgram(circuit, profile, schedule, problems);
+  if (loaded.noiseScale !== undefined) {
+    // An `error:` the scale pushed out of reach is the scale's doing: say so.
+    problems.items.forEach((p, i) => {
+      if (p.code === 'error-unreachable') problems.items[i] = { ...p, message: `--noise-scale ${loaded.noiseScale}: ${p.message}` };
+    });
+  }
   problems.throwIfErrors();
   return { schedule, program, problems };
 }
@@ -209,6 +219,8 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     ...(labels !== null ? { labels } : {}),
     measured,
     ...(labels !== null ? { measured_labels: measured.map((q) => labels[q]!) } : {}),
+    ...(loaded.layout !== undefined ? { layout: loaded.layout } : {}),
+    ...(loaded.noiseScale !== undefined ? { noise_scale: loaded.noiseScale } : {}),
     schedule: schedule.policy,
     duration_ns: schedule.duration,
     probabilities: figures.probabilities,

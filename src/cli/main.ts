@@ -4,9 +4,10 @@ import { runCommand } from './runCommand.js';
 import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
 import { makeStyle, wantColor } from './style.js';
 import { renderProblems } from './problems.js';
+import { parseLayout, parseNoiseScale } from './options.js';
 
-/** Exit statuses of the fray command (the contract's): success, internal error, input error. */
-export const EXIT = { ok: 0, internal: 1, input: 2 } as const;
+/** Exit statuses of the fray command: success, internal error, input error, a failed `--require`. */
+export const EXIT = { ok: 0, internal: 1, input: 2, requirement: 3 } as const;
 
 /** Thrown by option parsers for a bad command-line value (reported with exit status 2). */
 export class UsageError extends Error {}
@@ -84,7 +85,9 @@ function buildProgram(io: CliIO): Command {
     .argument('<file>', 'circuit file (YAML)')
     .option('--json', 'print one JSON object instead of the report')
     .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
-    .addOption(new Option('--set <name=value...>', 'override a circuit parameter (repeatable), e.g. --set theta=0.4 --set "phi=pi/8"'))
+    .addOption(new Option('--set <key=value...>', 'override a parameter or a profile field (repeatable), e.g. --set theta=0.4 --set qubits.all.t1=50us --set gates.cx.error=none'))
+    .option('--noise-scale <c>', 'multiply every noise strength by C ≥ 0 (rates 1/T1 and 1/T2, probabilities, error, readout)', parseNoiseScale)
+    .option('--layout <p0,p1,...>', 'place circuit qubit i on device qubit P_i: the device profile is read at those qubits', parseLayout)
     .option('--shots <n>', 'also sample this many shots from the measured distribution', parseShots)
     .option('--seed <s>', 'seed of the shot sampler (default 1); the same seed gives the same counts everywhere', parseSeed)
     .addOption(new Option('--observe <pauli...>', 'report ⟨P⟩ for Pauli strings, qubit 0 leftmost (repeatable or comma-separated), e.g. --observe ZZI,XXX'))
@@ -102,6 +105,8 @@ function buildProgram(io: CliIO): Command {
         '  fray run circuits/ghz5.yaml\n' +
         '  fray run circuits/ghz5.yaml --device circuits/devices/bench-line5.yaml --top 4\n' +
         '  fray run circuits/ramsey-echo.yaml --set detune=0.025 --schedule\n' +
+        '  fray run circuits/ghz5.yaml --set qubits.all.t1=50us --set gates.cx.error=none\n' +
+        '  fray run circuits/ghz5.yaml --noise-scale 2 --layout 4,3,2,1,0\n' +
         '  fray run circuits/ghz5.yaml --shots 1000 --seed 7 --observe ZZIII,XXXXX --json\n' +
         '  fray run circuits/bench/layers10x20.yaml --plan      what each pass over ρ fuses\n' +
         '  fray run circuits/bench/layers10x20.yaml --threads 1 one thread (or --no-fuse: one pass per operation)\n' +

@@ -25,6 +25,8 @@ export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Sty
   kv('device', r.device ?? (sim.profile.qubits.every((q) => !Number.isFinite(q.t1) && !Number.isFinite(q.t2)) ? 'none (noise only as written in the circuit)' : 'inline noise'));
   const measured = r.measured.map((q) => qubitName(q, reg)).join(' ');
   kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, measured: ${measured}`);
+  if (r.layout !== undefined) kv('layout', r.layout.map((p, i) => `${qubitName(i, reg)}→${p}`).join(' ') + ' (circuit qubit → device qubit)');
+  if (r.noise_scale !== undefined) kv('noise', `every strength × ${r.noise_scale} (--noise-scale)`);
   kv('duration', `${formatDuration(r.duration_ns)} (${r.schedule.toUpperCase()} schedule)`);
   lines.push('');
 

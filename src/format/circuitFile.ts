@@ -30,6 +30,20 @@ export function readCircuit(
 ): Circuit | undefined {
   const root = parseYamlTree(text, file, problems);
   if (root === undefined) return undefined;
+  return readCircuitTree(root, file, problems, options);
+}
+
+/**
+ * Validates a circuit file's located YAML tree (parsed once by parseYamlTree) into the typed
+ * circuit. Studies call this again per parameter point with new `set` values: the YAML is
+ * never re-parsed, only re-typed (angles, durations and matrices depend on the params).
+ */
+export function readCircuitTree(
+  root: YNode,
+  file: string,
+  problems: ProblemList,
+  options: CircuitReadOptions = {},
+): Circuit | undefined {
   const map = asMap(root, 'a circuit file', problems);
   if (map === undefined) return undefined;
   checkKeys(map, CIRCUIT_KEYS, 'the circuit file', problems);
@@ -53,7 +67,7 @@ export function readCircuit(
   }
 
   const ne = entryOf(map, 'noise');
-  const inlineNoise: ProfileSpec | null = ne === undefined ? null : (readProfile(ne.value, file, "the circuit's 'noise'", problems, 'inline') ?? null);
+  const inlineNoise: ProfileSpec | null = ne === undefined ? null : (readProfile(ne.value, file, "the circuit's 'noise'", problems, 'inline', params) ?? null);
 
   const channels: Map<string, CustomChannel> = (() => {
     const ce = entryOf(map, 'channels');

@@ -1,6 +1,6 @@
 import { NOISE_KIND_KEYS, type NoiseKinds } from '../noise/kinds.js';
 import type { ProblemList, SourcePosition } from './problem.js';
-import { asMap, checkKeys, readProbability, readString, unknownKey } from './read.js';
+import { asMap, checkKeys, readProbability, readString, unknownKey, type NumberEnv } from './read.js';
 import type { YEntry, YMap } from './yamlTree.js';
 
 /** A value with the position of the key or value it was read from. */
@@ -21,7 +21,7 @@ export function isNoiseKindKey(key: string): boolean {
  * Reads one noise-kind entry (e.g. `depolarizing: 0.01`, `pauli: {x: 0.01}`) into `into`.
  * Returns false when the key is not a noise kind (the caller decides what else it may be).
  */
-export function readNoiseKindEntry(e: YEntry, into: NoiseKindsSpec, where: string, problems: ProblemList): boolean {
+export function readNoiseKindEntry(e: YEntry, into: NoiseKindsSpec, where: string, problems: ProblemList, env?: NumberEnv): boolean {
   const what = `'${e.key}' in ${where}`;
   switch (e.key) {
     case 'error':
@@ -31,7 +31,7 @@ export function readNoiseKindEntry(e: YEntry, into: NoiseKindsSpec, where: strin
     case 'bit_flip':
     case 'phase_flip':
     case 'bit_phase_flip': {
-      const p = readProbability(e.value, what, problems);
+      const p = readProbability(e.value, what, problems, env);
       if (p !== undefined) into[e.key] = { value: p, at: e.value.at };
       return true;
     }
@@ -41,7 +41,7 @@ export function readNoiseKindEntry(e: YEntry, into: NoiseKindsSpec, where: strin
       checkKeys(m, ['x', 'y', 'z'], what, problems);
       const get = (k: 'x' | 'y' | 'z'): number | undefined => {
         const ent = m.entries.find((x) => x.key === k);
-        return ent === undefined ? 0 : readProbability(ent.value, `'${k}' of ${what}`, problems);
+        return ent === undefined ? 0 : readProbability(ent.value, `'${k}' of ${what}`, problems, env);
       };
       const x = get('x');
       const y = get('y');
@@ -65,7 +65,7 @@ export function readNoiseKindEntry(e: YEntry, into: NoiseKindsSpec, where: strin
 }
 
 /** Reads a whole map of noise kinds (a step's `noise:` annotation or a standalone noise step). */
-export function readNoiseKinds(map: YMap, where: string, problems: ProblemList, allowError = true): NoiseKindsSpec {
+export function readNoiseKinds(map: YMap, where: string, problems: ProblemList, allowError = true, env?: NumberEnv): NoiseKindsSpec {
   const kinds: NoiseKindsSpec = {};
   const allowed = NOISE_KIND_KEYS.filter((k) => allowError || k !== 'error');
   for (const e of map.entries) {
@@ -73,7 +73,7 @@ export function readNoiseKinds(map: YMap, where: string, problems: ProblemList, 
       problems.error(e.keyAt, 'error-needs-gate', `'error' in ${where} needs a gate to measure the infidelity against; use depolarizing or another kind here`);
       continue;
     }
-    if (!readNoiseKindEntry(e, kinds, where, problems)) unknownKey(e, allowed, where, problems);
+    if (!readNoiseKindEntry(e, kinds, where, problems, env)) unknownKey(e, allowed, where, problems);
   }
   checkErrorAndDepolarizing(kinds, where, problems);
   return kinds;

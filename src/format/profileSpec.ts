@@ -7,8 +7,10 @@ import {
   readChoice,
   readDuration,
   readProbability,
+  isNone,
   readString,
   unknownKey,
+  type NumberEnv,
 } from './read.js';
 import { NOISE_KIND_KEYS } from '../noise/kinds.js';
 import type { YMap, YNode } from './yamlTree.js';
@@ -25,6 +27,8 @@ export interface QubitEntrySpec {
   t2?: Loc<number>;
   excited?: Loc<number>;
   readout?: Loc<Readout>;
+  /** Fields switched off with `none` (they then take their no-noise default, whatever a less specific entry says). */
+  off?: Set<string>;
 }
 
 /** One `gates:` entry of a noise profile as written (duration in ns). */
@@ -32,6 +36,8 @@ export interface GateEntrySpec {
   duration?: Loc<number>;
   thermal?: Loc<boolean>;
   kinds: NoiseKindsSpec;
+  /** Fields switched off with `none` (`duration` or a noise kind), whatever a less specific entry says. */
+  off?: Set<string>;
 }
 
 /** An entry under a key that is resolved later against the circuit ('all', a qubit, a gate, "cx 1 2"). */
@@ -44,8 +50,11 @@ export interface KeyedSpec<T> {
 /** A noise profile as written in a device file or a circuit's inline `noise:` (unresolved). */
 export interface ProfileSpec {
   readonly file: string;
-  /** A device file describes a whole chip: its entries for qubits beyond a smaller circuit are ignored. */
-  readonly source: 'device' | 'inline';
+  /**
+   * A device file describes a whole chip: its entries for qubits beyond a smaller circuit are
+   * ignored. 'override' is the command line's `--set` layer, applied over everything it addresses.
+   */
+  readonly source: 'device' | 'inline' | 'override';
   name?: Loc<string>;
   qubits: KeyedSpec<QubitEntrySpec>[];
   gates: KeyedSpec<GateEntrySpec>[];
@@ -55,16 +64,23 @@ export interface ProfileSpec {
 
 /** The top-level keys of a noise profile. */
 export const PROFILE_KEYS = ['name', 'qubits', 'gates', 'idle', 'schedule'] as const;
-const QUBIT_KEYS = ['t1', 't2', 'excited', 'readout'] as const;
-const GATE_KEYS = ['duration', 'thermal', ...NOISE_KIND_KEYS] as const;
+/** The fields of a `qubits:` entry. */
+export const QUBIT_KEYS = ['t1', 't2', 'excited', 'readout'] as const;
+/** The fields of a `gates:` entry. */
+export const GATE_KEYS = ['duration', 'thermal', ...NOISE_KIND_KEYS] as const;
 
-/** Reads a noise profile map (device file root or inline `noise:`) into a ProfileSpec. */
+/**
+ * Reads a noise profile map (device file root, inline `noise:`, or the command line's
+ * overrides) into a ProfileSpec. With `env` (the circuit's params) numbers may be
+ * expressions of them; a device file describes hardware and takes literals only.
+ */
 export function readProfile(
   node: YNode,
   file: string,
   where: string,
   problems: ProblemList,
-  source: 'device' | 'inline',
+  source: ProfileSpec['source'],
+  env?: NumberEnv,
 ): ProfileSpec | undefined {
   const map = asMap(node, where, problems);
   if (map === undefined) return undefined;
@@ -90,7 +106,7 @@ export function readProfile(
       case 'qubits': {
         const m = asMap(e.value, `'qubits' of ${where}`, problems);
         if (m !== undefined) for (const q of m.entries) {
-          const entry = readQubitEntry(q.value, `qubit entry '${q.key}'`, problems);
+          const entry = readQubitEntry(q.value, `qubit entry '${q.key}'`, problems, env);
           if (entry !== undefined) spec.qubits.push({ key: q.key, keyAt: q.keyAt, entry });
         }
         break;
@@ -98,7 +114,7 @@ export function readProfile(
       case 'gates': {
         const m = asMap(e.value, `'gates' of ${where}`, problems);
         if (m !== undefined) for (const g of m.entries) {
-          const entry = readGateEntry(g.value, `gate entry '${g.key}'`, problems);
+          const entry = readGateEntry(g.value, `gate entry '${g.key}'`, problems, env);
           if (entry !== undefined) spec.gates.push({ key: g.key.trim().replace(/\s+/g, ' '), keyAt: g.keyAt, entry });
         }
         break;
@@ -108,15 +124,19 @@ export function readProfile(
   return spec;
 }
 
-function readQubitEntry(node: YNode, where: string, problems: ProblemList): QubitEntrySpec | undefined {
+function readQubitEntry(node: YNode, where: string, problems: ProblemList, env: NumberEnv | undefined): QubitEntrySpec | undefined {
   const m = asMap(node, where, problems);
   if (m === undefined) return undefined;
   checkKeys(m, QUBIT_KEYS, where, problems);
   const out: QubitEntrySpec = {};
   for (const e of m.entries) {
     const what = `'${e.key}' of ${where}`;
+    if ((QUBIT_KEYS as readonly string[]).includes(e.key) && isNone(e.value)) {
+      (out.off ??= new Set()).add(e.key);
+      continue;
+    }
     if (e.key === 't1' || e.key === 't2') {
-      const ns = readDuration(e.value, what, problems);
+      const ns = readDuration(e.value, what, problems, env);
       if (ns === undefined) continue;
       if (ns <= 0) {
         problems.error(e.value.at, 'out-of-range', `${what} must be longer than zero; leave it out for no relaxation`);
@@ -124,19 +144,19 @@ function readQubitEntry(node: YNode, where: string, problems: ProblemList): Qubi
       }
       out[e.key] = { value: ns, at: e.value.at };
     } else if (e.key === 'excited') {
-      const p = readProbability(e.value, what, problems);
+      const p = readProbability(e.value, what, problems, env);
       if (p !== undefined) out.excited = { value: p, at: e.value.at };
     } else if (e.key === 'readout') {
-      const r = readReadout(e.value, what, problems);
+      const r = readReadout(e.value, what, problems, env);
       if (r !== undefined) out.readout = { value: r, at: e.value.at };
     }
   }
   return out;
 }
 
-function readReadout(node: YNode, what: string, problems: ProblemList): Readout | undefined {
+function readReadout(node: YNode, what: string, problems: ProblemList, env: NumberEnv | undefined): Readout | undefined {
   if (node.kind === 'scalar') {
-    const p = readProbability(node, what, problems);
+    const p = readProbability(node, what, problems, env);
     return p === undefined ? undefined : { zeroAsOne: p, oneAsZero: p };
   }
   const m = asMap(node, `${what} (one probability, or zero_as_one and one_as_zero)`, problems);
@@ -145,25 +165,29 @@ function readReadout(node: YNode, what: string, problems: ProblemList): Readout 
   let zeroAsOne: number | undefined = 0;
   let oneAsZero: number | undefined = 0;
   for (const e of m.entries) {
-    if (e.key === 'zero_as_one') zeroAsOne = readProbability(e.value, `'zero_as_one' of ${what}`, problems);
-    if (e.key === 'one_as_zero') oneAsZero = readProbability(e.value, `'one_as_zero' of ${what}`, problems);
+    if (e.key === 'zero_as_one') zeroAsOne = readProbability(e.value, `'zero_as_one' of ${what}`, problems, env);
+    if (e.key === 'one_as_zero') oneAsZero = readProbability(e.value, `'one_as_zero' of ${what}`, problems, env);
   }
   return zeroAsOne === undefined || oneAsZero === undefined ? undefined : { zeroAsOne, oneAsZero };
 }
 
-function readGateEntry(node: YNode, where: string, problems: ProblemList): GateEntrySpec | undefined {
+function readGateEntry(node: YNode, where: string, problems: ProblemList, env: NumberEnv | undefined): GateEntrySpec | undefined {
   const m: YMap | undefined = asMap(node, where, problems);
   if (m === undefined) return undefined;
   const out: GateEntrySpec = { kinds: {} };
   for (const e of m.entries) {
     const what = `'${e.key}' of ${where}`;
+    if (e.key !== 'thermal' && (GATE_KEYS as readonly string[]).includes(e.key) && isNone(e.value)) {
+      (out.off ??= new Set()).add(e.key);
+      continue;
+    }
     if (e.key === 'duration') {
-      const ns = readDuration(e.value, what, problems);
+      const ns = readDuration(e.value, what, problems, env);
       if (ns !== undefined) out.duration = { value: ns, at: e.value.at };
     } else if (e.key === 'thermal') {
       const b = readBoolean(e.value, what, problems);
       if (b !== undefined) out.thermal = { value: b, at: e.value.at };
-    } else if (!readNoiseKindEntry(e, out.kinds, where, problems)) {
+    } else if (!readNoiseKindEntry(e, out.kinds, where, problems, env)) {
       unknownKey(e, GATE_KEYS, where, problems);
     }
   }

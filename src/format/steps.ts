@@ -4,7 +4,7 @@ import { readAngle } from './angles.js';
 import { angleNodes, type GateLibrary } from './gateLibrary.js';
 import { readNoiseKinds } from './noiseKindsSpec.js';
 import type { ProblemList, SourcePosition } from './problem.js';
-import { asMap, readDuration, readString } from './read.js';
+import { asMap, readDuration, readString, type NumberEnv } from './read.js';
 import { qubitName } from './register.js';
 import { checkModifiers, splitStep, type StepShape } from './stepShape.js';
 import { readTargets } from './targets.js';
@@ -62,7 +62,7 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
       }
       const nm = asMap(noiseEntry.value, `'noise' of ${where}`, problems);
       if (nm === undefined) return;
-      const kinds = readNoiseKinds(nm, `${where}`, problems, false);
+      const kinds = readNoiseKinds(nm, `${where}`, problems, false, ctx.params);
       const apps = readTargets(on.value, { kind: 'channel' }, ctx.register, where, problems);
       if (apps === undefined) return;
       if (!checkChannelArity(kinds.channel, apps, ctx, where, problems) || afterMeasure(apps)) return;
@@ -79,7 +79,7 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
           problems.error(shape.action.keyAt, 'missing-for', `${where}: idle needs 'for' with a duration, e.g. 'for: 2us'`);
           return;
         }
-        const duration = readDuration(f.value, `'for' of ${where}`, problems);
+        const duration = readDuration(f.value, `'for' of ${where}`, problems, ctx.params);
         const apps = readTargets(targetNode, { kind: 'each' }, ctx.register, where, problems);
         if (duration === undefined || apps === undefined) return;
         for (const qubits of apps) ops.push({ ...base, kind: 'idle', qubits, duration });
@@ -104,7 +104,7 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
       }
       case 'reset': {
         if (!checkModifiers(shape, ['noise', 'label'], 'reset', where, problems)) return;
-        const noise = readOverride(shape.modifiers.get('noise'), where, false, problems);
+        const noise = readOverride(shape.modifiers.get('noise'), where, false, problems, ctx.params);
         const apps = readTargets(targetNode, { kind: 'each' }, ctx.register, where, problems);
         if (noise === null || apps === undefined || afterMeasure(apps)) return;
         if (noise !== undefined && !checkChannelArity(noise.kinds.channel, apps, ctx, where, problems)) return;
@@ -115,7 +115,7 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
         const gate = ctx.gates.get(action)!;
         if (!checkModifiers(shape, ['angle', 'angles', 'noise', 'label'], `gate ${action}`, where, problems)) return;
         const angleNs = angleNodes(shape.modifiers, gate, shape.action.keyAt, where, problems);
-        const noise = readOverride(shape.modifiers.get('noise'), where, true, problems);
+        const noise = readOverride(shape.modifiers.get('noise'), where, true, problems, ctx.params);
         const apps = readTargets(targetNode, gate.qubits === 1 ? { kind: 'each' } : { kind: 'tuple', arity: gate.qubits }, ctx.register, where, problems);
         if (angleNs === undefined || noise === null || apps === undefined || afterMeasure(apps)) return;
         if (noise !== undefined && !checkChannelArity(noise.kinds.channel, apps, ctx, where, problems)) return;
@@ -144,7 +144,7 @@ function readLabel(shape: StepShape, where: string, problems: ProblemList): { la
 }
 
 /** A step's `noise:` — undefined when absent, null when invalid, an override otherwise. */
-function readOverride(e: YEntry | undefined, where: string, allowError: boolean, problems: ProblemList): NoiseOverride | undefined | null {
+function readOverride(e: YEntry | undefined, where: string, allowError: boolean, problems: ProblemList, env: NumberEnv): NoiseOverride | undefined | null {
   if (e === undefined) return undefined;
   if (e.value.kind === 'scalar' && e.value.value === 'none') return { kinds: {}, at: e.value.at };
   if (e.value.kind !== 'map') {
@@ -152,7 +152,7 @@ function readOverride(e: YEntry | undefined, where: string, allowError: boolean,
     return null;
   }
   const before = problems.errors.length;
-  const kinds = readNoiseKinds(e.value, `'noise' of ${where}`, problems, allowError);
+  const kinds = readNoiseKinds(e.value, `'noise' of ${where}`, problems, allowError, env);
   return problems.errors.length > before ? null : { kinds, at: e.value.at };
 }
 

@@ -1,0 +1,49 @@
+import { parseOverride, type Override } from '../format/overrides.js';
+import { UsageError } from './main.js';
+
+/**
+ * Option parsers shared by the commands (run, compare, sweep, budget, threshold): each turns
+ * one command-line value into a typed value or throws UsageError (exit status 2).
+ */
+
+/** The repeatable `--set KEY=VALUE` values as overrides, in order. */
+export function parseSetOptions(values: unknown): Override[] {
+  return ((values as string[] | undefined) ?? []).map((s) => {
+    const o = parseOverride(s);
+    if (o === undefined) throw new UsageError(`--set ${s}: expected KEY=VALUE, e.g. --set theta=0.4 or --set qubits.all.t1=50us`);
+    return o;
+  });
+}
+
+/** `--noise-scale C`: a finite number ≥ 0. */
+export function parseNoiseScale(v: string): number {
+  const c = Number(v);
+  if (v.trim() === '' || !Number.isFinite(c) || c < 0) throw new UsageError(`--noise-scale ${v}: expected a number ≥ 0 (1 = the noise as written, 0 = none)`);
+  return c;
+}
+
+/** `--layout P0,P1,…`: the device qubit of each circuit qubit. */
+export function parseLayout(v: string): number[] {
+  const parts = v.split(',').map((s) => s.trim());
+  if (parts.some((p) => !/^\d+$/.test(p))) throw new UsageError(`--layout ${v}: expected device qubit numbers separated by commas, e.g. --layout 2,3,4`);
+  return parts.map(Number);
+}
+
+/** Every `--layout` given (repeatable for compare), each parsed. */
+export function collectLayout(v: string, previous: number[][] | undefined): number[][] {
+  return [...(previous ?? []), parseLayout(v)];
+}
+
+/** Repeatable string option collector. */
+export function collect(v: string, previous: string[] | undefined): string[] {
+  return [...(previous ?? []), v];
+}
+
+/** A whole number ≥ 1 (jobs, points). */
+export function parsePositiveInt(name: string): (v: string) => number {
+  return (v: string) => {
+    const n = Number(v);
+    if (!/^\d+$/.test(v) || !Number.isSafeInteger(n) || n < 1) throw new UsageError(`${name} ${v}: expected a whole number, 1 or more`);
+    return n;
+  };
+}
