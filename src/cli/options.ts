@@ -1,5 +1,6 @@
 import { parseOverride, type Override } from '../format/overrides.js';
 import { UsageError } from './main.js';
+import { parseCondition, parseMetric, type Condition, type Metric } from '../studies/index.js';
 
 /**
  * Option parsers shared by the commands (run, compare, sweep, budget, threshold): each turns
@@ -46,4 +47,18 @@ export function parsePositiveInt(name: string): (v: string) => number {
     if (!/^\d+$/.test(v) || !Number.isSafeInteger(n) || n < 1) throw new UsageError(`${name} ${v}: expected a whole number, 1 or more`);
     return n;
   };
+}
+
+/** A metric option (`--by`, `--metric`). */
+export function parseMetricOption(option: string, text: string): Metric {
+  const m = parseMetric(text);
+  if ('error' in m) throw new UsageError(`${option} ${text}: ${m.error}`);
+  return m;
+}
+
+/** A condition option (`--require`, `--target`). */
+export function parseConditionOption(option: string, text: string): Condition {
+  const c = parseCondition(text);
+  if ('error' in c) throw new UsageError(`${option} ${c.error}`);
+  return c;
 }

@@ -2,7 +2,7 @@ import { planFile, simulate } from '../api/simulate.js';
 import { formatPlan, planToJson } from '../plan/formatPlan.js';
 import { parseByteSize } from '../engine/memory.js';
 import { renderRunReport } from './runReport.js';
-import { toJson } from './json.js';
+import { toJson } from '../results/json.js';
 import { makeStyle, wantColor } from './style.js';
 import { UsageError, type CliIO } from './main.js';
 import { parseSetOptions } from './options.js';

@@ -1,0 +1,54 @@
+import type { CompareResult, Condition, Metric, SweepCheck, SweepPlan, SweepRow, Varied } from '../studies/index.js';
+import { metricTitle, metricValue, NOISE_SCALE_KEY, parseMetric, variantLabel } from '../studies/index.js';
+import { barChart, heatMap, lineChart } from './charts.js';
+import { renderSvg } from './render.js';
+
+/** The ranking metric of a comparison as bars, best first, coloured by whether the variant met every requirement. */
+export async function plotCompare(r: CompareResult): Promise<string> {
+  const m = parseMetric(r.by);
+  const title = 'error' in m ? r.by : metricTitle(m);
+  return renderSvg(
+    barChart(
+      r.variants.map((v) => ({ label: `${v.rank}. ${variantLabel(v)}`, value: v.value, group: v.failed.length > 0 ? 'fails a requirement' : 'meets every requirement' })),
+      { title: `Variants ranked by ${title}`, subtitle: `devices: ${[...new Set(r.variants.map((v) => v.device ?? 'none'))].join('; ')}`, valueTitle: title },
+    ),
+  );
+}
+
+/** The axis title of a varied key: the key and its base unit. */
+function keyTitle(v: Varied): string {
+  if (v.key === NOISE_SCALE_KEY) return 'noise scale C (× every noise strength)';
+  return v.unit !== null ? `${v.key} (${v.unit})` : v.key;
+}
+
+/**
+ * A sweep's plot: one varied key → each metric against it (a log axis for a log range) with
+ * the target line when given; two keys → a heat map of the first metric over both.
+ */
+export async function plotSweep(plan: SweepPlan, check: SweepCheck, rows: readonly SweepRow[], metrics: readonly Metric[], target?: Condition): Promise<string> {
+  const who = `${check.name ?? plan.spec.file} on ${check.device ?? 'the noise written in the circuit'}`;
+  const vary = plan.spec.vary;
+  if (vary.length === 1) {
+    const v = vary[0]!;
+    const points = rows.flatMap((r) => metrics.map((m) => ({ x: r.values[v.key]!, series: metricTitle(m), y: metricValue(r.result, m) })));
+    const yTitle = metrics.length === 1 ? metricTitle(metrics[0]!) : 'value';
+    return renderSvg(
+      lineChart(points, {
+        title: `${metrics.map(metricTitle).join(', ')} against ${v.key}`,
+        subtitle: who,
+        xTitle: keyTitle(v),
+        yTitle,
+        logX: v.log,
+        ...(target !== undefined ? { target: { y: target.value, label: `target ${target.text}` } } : {}),
+      }),
+    );
+  }
+  const [vx, vy] = [vary[1]!, vary[0]!];
+  const m = metrics[0]!;
+  return renderSvg(
+    heatMap(
+      rows.map((r) => ({ x: r.values[vx.key]!, y: r.values[vy.key]!, value: metricValue(r.result, m) })),
+      { title: `${metricTitle(m)} over ${vy.key} and ${vx.key}`, subtitle: who, xTitle: keyTitle(vx), yTitle: keyTitle(vy), valueTitle: metricTitle(m) },
+    ),
+  );
+}
