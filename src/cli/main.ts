@@ -220,6 +220,59 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
       await mergeCommand(parts, opts, io);
     });
   merge.exitOverride();
+
+  const threshold = program
+    .command('threshold')
+    .description('find the value of one key at which a condition is just met (bracketing and bisection)')
+    .argument('<file>', 'circuit file (YAML)')
+    .requiredOption('--target <cond>', 'the condition, METRIC OP NUMBER, e.g. state>=0.95')
+    .requiredOption('--vary <key=a..b>', 'the key and its range, e.g. gates.cx.error=0.0001..0.05, qubits.all.t1=10us..200us, noise-scale=0..5')
+    .option('--tol <x>', 'stop when the bracket is this narrow, in the range\'s unit (default: a millionth of the range)')
+    .option('--json', 'print one JSON object instead of the report')
+    .addOption(new Option('--set <key=value...>', 'fixed overrides (as in run)'))
+    .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
+    .option('--noise-scale <c>', 'a fixed noise scale (unless noise-scale is the varied key)', parseNoiseScale)
+    .option('--layout <p0,p1,...>', 'place circuit qubit i on device qubit P_i', parseLayout)
+    .addHelpText(
+      'after',
+      '\nExamples:\n' +
+        '  fray threshold circuits/ghz5.yaml --target state>=0.95 --vary gates.cx.error=0.0001..0.05\n' +
+        '  fray threshold circuits/ghz5.yaml --target state>=0.9 --vary noise-scale=0..5 --tol 0.001\n' +
+        '  fray threshold circuits/ghz5.yaml --target classical>=0.8 --vary qubits.all.t1=10us..500us --json\n' +
+        '\nExit status 3 when the target is met nowhere in the range.',
+    )
+    .action(async (file: string, opts: Record<string, unknown>) => {
+      const { thresholdCommand } = await import('./thresholdCommand.js');
+      exitWith(await thresholdCommand(file, opts, io));
+    });
+  threshold.exitOverride();
+
+  const budget = program
+    .command('budget')
+    .description('where the infidelity comes from: each noise source alone, each left out, the remainder, per qubit')
+    .argument('<file>', 'circuit file (YAML)')
+    .option('--by <metric>', 'split the loss of state (default: 1 − F), classical, tvd, purity or observable:P')
+    .option('--json', 'print one JSON object instead of the tables')
+    .option('--plot <file.svg>', 'draw each source\'s loss as bars')
+    .addOption(new Option('--set <key=value...>', 'overrides (as in run)'))
+    .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
+    .option('--noise-scale <c>', 'multiply every noise strength by C first', parseNoiseScale)
+    .option('--layout <p0,p1,...>', 'place circuit qubit i on device qubit P_i', parseLayout)
+    .addHelpText(
+      'after',
+      '\nExamples:\n' +
+        '  fray budget circuits/ghz5.yaml\n' +
+        '  fray budget circuits/ghz5.yaml --by classical --plot budget.svg\n' +
+        '  fray budget circuits/ghz5.yaml --layout 0,1,2,4,3 --json\n' +
+        '\nSources: relaxation (T1) and pure dephasing (T2 beyond T1), each gate name\'s noise kinds (a calibrated\n' +
+        "error: counts as the depolarizing it solves to in the full run), each custom channel, steps' own noise,\n" +
+        'readout. The remainder is the total minus the single-source losses: the sources\' interaction.',
+    )
+    .action(async (file: string, opts: Record<string, unknown>) => {
+      const { budgetCommand } = await import('./budgetCommand.js');
+      await budgetCommand(file, opts, io);
+    });
+  budget.exitOverride();
   return program;
 }
 

@@ -5,4 +5,4 @@
 export { renderSvg } from './render.js';
 export { lineChart, heatMap, barChart } from './charts.js';
 export type { LinePoint, LineChartOptions, HeatCell, Bar } from './charts.js';
-export { plotCompare, plotSweep } from './studyPlots.js';
+export { plotCompare, plotSweep, plotBudget } from './studyPlots.js';

@@ -1,4 +1,4 @@
-import type { CompareResult, Condition, Metric, SweepCheck, SweepPlan, SweepRow, Varied } from '../studies/index.js';
+import type { BudgetResult, CompareResult, Condition, Metric, SweepCheck, SweepPlan, SweepRow, Varied } from '../studies/index.js';
 import { metricTitle, metricValue, NOISE_SCALE_KEY, parseMetric, variantLabel } from '../studies/index.js';
 import { barChart, heatMap, lineChart } from './charts.js';
 import { renderSvg } from './render.js';
@@ -49,6 +49,23 @@ export async function plotSweep(plan: SweepPlan, check: SweepCheck, rows: readon
     heatMap(
       rows.map((r) => ({ x: r.values[vx.key]!, y: r.values[vy.key]!, value: metricValue(r.result, m) })),
       { title: `${metricTitle(m)} over ${vy.key} and ${vx.key}`, subtitle: who, xTitle: keyTitle(vx), yTitle: keyTitle(vy), valueTitle: metricTitle(m) },
+    ),
+  );
+}
+
+/** A budget's sources as bars (loss with only that source on), then the remainder, then the total. */
+export async function plotBudget(r: BudgetResult): Promise<string> {
+  const m = parseMetric(r.by);
+  const loss = 'error' in m ? r.by : `loss of ${metricTitle(m)}`;
+  return renderSvg(
+    barChart(
+      [
+        // a loss within rounding of zero is drawn as zero
+        ...r.sources.map((s) => ({ label: s.label, value: Math.abs(s.only_on) < 1e-12 ? 0 : s.only_on, group: 'source alone' })),
+        { label: 'remainder (interaction)', value: r.remainder, group: 'remainder' },
+        { label: 'total', value: r.total, group: 'total' },
+      ],
+      { title: `Noise budget: ${loss}`, subtitle: `${r.name ?? r.file} on ${r.device ?? 'the noise written in the circuit'}`, valueTitle: `${loss} (only this source on)` },
     ),
   );
 }

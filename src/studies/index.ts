@@ -10,6 +10,8 @@
  * - sweep.ts       the grid, its fingerprint, shards, and running points (sweepPool.ts,
  *                  sweepWorker.ts: worker threads through piscina)
  * - sweepFiles.ts  CSV / JSON Lines output, resume, merge
+ * - threshold.ts   where a condition is just met: bracketing and bisection on one key
+ * - budget.ts      where the loss comes from: each noise source alone, each left out, the remainder
  */
 export { parseMetric, metricName, metricTitle, metricValue, metricLoss, higherIsBetter, observablesOf, METRIC_NAMES } from './metrics.js';
 export type { Metric } from './metrics.js';
@@ -25,3 +27,7 @@ export { planSweep, pointAt, selectedIndices, runSweep, runPoint, checkSweep, de
 export type { SweepCheck, SweepSpec, SweepPlan, SweepPoint, SweepRow, SweepSelection, SweepRunOptions } from './sweep.js';
 export { formatOf, headerOf, headerText, csvColumns, rowText, readSweepFile, mergeSweepFiles } from './sweepFiles.js';
 export type { SweepFormat, SweepHeader, SweepFileContent } from './sweepFiles.js';
+export { findThreshold, THRESHOLD_SCAN_POINTS } from './threshold.js';
+export type { ThresholdOptions, ThresholdResult, ThresholdSample } from './threshold.js';
+export { noiseBudget } from './budget.js';
+export type { BudgetOptions, BudgetResult, BudgetSource } from './budget.js';
