@@ -32,7 +32,7 @@ export function lineChart(points: readonly LinePoint[], o: LineChartOptions): To
     {
       mark: { type: 'line', point: { filled: true, size: 36 }, strokeWidth: 2 },
       encoding: {
-        x: { field: 'x', type: 'quantitative', title: o.xTitle, scale: o.logX ? { type: 'log' } : { zero: false } },
+        x: { field: 'x', type: 'quantitative', title: o.xTitle, scale: o.logX ? { type: 'log', nice: false } : { zero: false, nice: false } },
         y: { field: 'y', type: 'quantitative', title: o.yTitle, scale: { zero: false } },
         color: { field: 'series', type: 'nominal', title: null, scale: { domain: series, range: SERIES_COLORS.slice(0, Math.max(1, series.length)) } },
         strokeDash: { field: 'series', type: 'nominal', title: null, scale: { domain: series, range: SERIES_DASHES.slice(0, Math.max(1, series.length)) } },

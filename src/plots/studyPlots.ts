@@ -1,6 +1,7 @@
 import type { BudgetResult, CompareResult, Condition, Metric, SweepCheck, SweepPlan, SweepRow, Varied } from '../studies/index.js';
 import { metricTitle, metricValue, NOISE_SCALE_KEY, parseMetric, variantLabel } from '../studies/index.js';
 import { barChart, heatMap, lineChart } from './charts.js';
+import { NOISE_KIND_KEYS } from '../noise/kinds.js';
 import { renderSvg } from './render.js';
 
 /** The ranking metric of a comparison as bars, best first, coloured by whether the variant met every requirement. */
@@ -15,10 +16,15 @@ export async function plotCompare(r: CompareResult): Promise<string> {
   );
 }
 
-/** The axis title of a varied key: the key and its base unit. */
+/** Profile fields whose values are probabilities (the unit an axis names for them). */
+const PROBABILITY_FIELDS: ReadonlySet<string> = new Set([...NOISE_KIND_KEYS, 'readout', 'excited', 'x', 'y', 'z', 'zero_as_one', 'one_as_zero']);
+
+/** The axis title of a varied key: the key and its unit (base unit, probability, or none for a parameter). */
 function keyTitle(v: Varied): string {
   if (v.key === NOISE_SCALE_KEY) return 'noise scale C (× every noise strength)';
-  return v.unit !== null ? `${v.key} (${v.unit})` : v.key;
+  if (v.unit !== null) return `${v.key} (${v.unit})`;
+  const field = v.key.split('.').pop()!;
+  return v.key.includes('.') && PROBABILITY_FIELDS.has(field) ? `${v.key} (probability)` : v.key;
 }
 
 /**
@@ -31,7 +37,8 @@ export async function plotSweep(plan: SweepPlan, check: SweepCheck, rows: readon
   if (vary.length === 1) {
     const v = vary[0]!;
     const points = rows.flatMap((r) => metrics.map((m) => ({ x: r.values[v.key]!, series: metricTitle(m), y: metricValue(r.result, m) })));
-    const yTitle = metrics.length === 1 ? metricTitle(metrics[0]!) : 'value';
+    const fidelities = metrics.every((m) => m.kind === 'state' || m.kind === 'classical');
+    const yTitle = metrics.length === 1 ? metricTitle(metrics[0]!) : fidelities ? 'fidelity' : 'value';
     return renderSvg(
       lineChart(points, {
         title: `${metrics.map(metricTitle).join(', ')} against ${v.key}`,

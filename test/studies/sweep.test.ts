@@ -67,17 +67,19 @@ describe('fray sweep', () => {
     expect(Number(records[1]!['duration_ns']) - Number(records[0]!['duration_ns'])).toBe(1000);
   });
 
-  it('2 shard processes merged equal the unsharded sweep; merge refuses other sweeps, doubled and missing points', async () => {
+  it('2 shard processes (the documented array-job script) merged equal the unsharded sweep; merge refuses other sweeps, doubled and missing points', async () => {
+    const vary = 'gates.cx.error=0.002..0.02:6';
     const whole = join(dir, 'whole.csv');
-    await fray('sweep', chain, ...VARY, '--out', whole, '--jobs', '1', '--quiet');
+    await fray('sweep', chain, '--vary', vary, '--out', whole, '--jobs', '1', '--quiet');
     const parts = [0, 1].map((i) => join(dir, `part-${i}.csv`));
-    // three separate processes, as three array jobs of a batch scheduler would be
+    // two separate processes, as two array tasks of a batch scheduler would be (docs/examples/sweep-array-task.sh)
     await Promise.all(
-      parts.map(
-        (p, i) =>
+      [{ SLURM_ARRAY_TASK_ID: '0' }, { I: '1' }].map(
+        (index, i) =>
           new Promise<void>((resolve, reject) => {
-            const child = spawn(process.execPath, ['bin/fray.js', 'sweep', chain, ...VARY, '--out', p, '--shard', `${i}/2`, '--jobs', '1', '--quiet'], { stdio: 'inherit' });
-            child.on('exit', (code) => (code === 0 ? resolve() : reject(new Error(`shard ${i} exited ${code}`))));
+            const env = { ...process.env, ...index, N: '2', OUT_DIR: dir, CIRCUIT: chain, VARY: vary, FRAY: `${process.execPath} bin/fray.js` };
+            const child = spawn('sh', ['docs/examples/sweep-array-task.sh'], { stdio: 'inherit', env });
+            child.on('exit', (code) => (code === 0 ? resolve() : reject(new Error(`array task ${i} exited ${code}`))));
           }),
       ),
     );
@@ -88,7 +90,7 @@ describe('fray sweep', () => {
     expect(mergeSweepFiles(texts.slice(0, 1), 'csv')).toEqual({ error: 'the parts lack points 1, 3, 5 of 6' });
     expect(mergeSweepFiles([...texts, texts[0]!], 'csv')).toMatchObject({ error: expect.stringContaining('point 0 is in both') });
     const other = join(dir, 'other.csv');
-    await fray('sweep', chain, '--vary', 'gates.cx.error=0.002..0.03:3', '--vary', 'wait=0,1', '--out', other, '--shard', '1/2', '--quiet');
+    await fray('sweep', chain, '--vary', 'gates.cx.error=0.002..0.03:6', '--out', other, '--shard', '1/2', '--quiet');
     const r = await fray('merge', parts[0]!, other, '--out', join(dir, 'bad.csv'));
     expect(r.code).toBe(2);
     expect(r.err).toContain('is from a different sweep');
