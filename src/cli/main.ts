@@ -77,10 +77,12 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
         '  fray run circuits/ghz5.yaml                 report for a circuit and its device\n' +
         '  fray run circuits/ghz5.yaml --json          the same as one JSON object\n' +
         '  fray run --help                             every option of run\n' +
-        '  fray compare circuits/line5/*.yaml --require state>=0.9   rank variants, gate CI\n' +
-        '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..2:9 --out s.csv\n' +
-        '\nExit status: 0 success, 2 input error (FILE:LINE:COL: message), 3 a --require or\n' +
-        '--target not met (compare), 1 internal error.',
+        "  fray compare circuits/variants/*.yaml --require 'state>=0.95'   rank variants, gate CI\n" +
+        '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..2:9 --plot s.svg      a figure against a knob\n' +
+        "  fray threshold circuits/ghz5.yaml --target 'state>=0.9' --vary gates.cx.error=0.0001..0.05\n" +
+        '  fray budget circuits/ghz5.yaml                 where the infidelity comes from\n' +
+        '\nExit status: 0 success, 2 input error (FILE:LINE:COL: message), 3 a requirement not met\n' +
+        '(compare --require; threshold: the target met nowhere), 1 internal error.',
     );
 
   const run = program
@@ -162,9 +164,9 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .addHelpText(
       'after',
       '\nExamples:\n' +
-        '  fray compare circuits/line5/ghz-*.yaml\n' +
+        '  fray compare circuits/variants/*.yaml\n' +
         '  fray compare circuits/ghz5.yaml --layout 0,1,2,3,4 --layout 4,3,2,1,0 --by classical\n' +
-        '  fray compare circuits/qpe3-asap.yaml circuits/qpe3-alap.yaml --require state>=0.78 --json\n' +
+        '  fray compare circuits/qpe3-asap.yaml circuits/qpe3-alap.yaml --require \'state>=0.78\' --json\n' +
         '\nHigher is better for state, classical and purity; lower for tvd, duration and observable:P.\n' +
         'Exit status 3 when any variant fails a --require (the table marks it).',
     )
@@ -196,7 +198,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
       'after',
       '\nExamples:\n' +
         '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..3:13 --plot scale.svg\n' +
-        '  fray sweep circuits/ghz5.yaml --vary gates.cx.error=0.001..0.03:log:12 --out cx.csv --target state>=0.9 --plot cx.svg\n' +
+        '  fray sweep circuits/ghz5.yaml --vary gates.cx.error=0.001..0.03:log:12 --out cx.csv --target \'state>=0.9\' --plot cx.svg\n' +
         '  fray sweep circuits/ghz5.yaml --vary qubits.3.t1=10us..100us:8 --vary gates.cx.error=0.002,0.008,0.02 --plot heat.svg\n' +
         '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..3:100 --out part-$I.csv --shard $I/4   (then: fray merge part-*.csv --out all.csv)\n' +
         '\nKeys are the --set keys (params, qubits.…, gates.…, idle, schedule) and noise-scale. CSV columns: point, the keys in base\n' +
@@ -236,9 +238,9 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .addHelpText(
       'after',
       '\nExamples:\n' +
-        '  fray threshold circuits/ghz5.yaml --target state>=0.95 --vary gates.cx.error=0.0001..0.05\n' +
-        '  fray threshold circuits/ghz5.yaml --target state>=0.9 --vary noise-scale=0..5 --tol 0.001\n' +
-        '  fray threshold circuits/ghz5.yaml --target classical>=0.8 --vary qubits.all.t1=10us..500us --json\n' +
+        '  fray threshold circuits/ghz5.yaml --target \'state>=0.95\' --vary gates.cx.error=0.0001..0.05\n' +
+        '  fray threshold circuits/ghz5.yaml --target \'state>=0.9\' --vary noise-scale=0..5 --tol 0.001\n' +
+        '  fray threshold circuits/ghz5.yaml --target \'classical>=0.8\' --vary qubits.all.t1=10us..500us --json\n' +
         '\nExit status 3 when the target is met nowhere in the range.',
     )
     .action(async (file: string, opts: Record<string, unknown>) => {
