@@ -2,7 +2,7 @@ import { writeFileSync } from 'node:fs';
 import { noiseBudget, type BudgetResult, type BudgetSource } from '../studies/index.js';
 import { toJson } from '../results/json.js';
 import { UsageError, type CliIO } from './main.js';
-import { parseMetricOption, parseSetOptions } from './options.js';
+import { parseMetricOption, targetOf } from './options.js';
 import { renderTable } from './table.js';
 
 /** `fray budget FILE`: where the loss of a metric comes from. */
@@ -10,10 +10,7 @@ export async function budgetCommand(file: string, opts: Record<string, unknown>,
   const by = opts['by'] !== undefined ? parseMetricOption('--by', String(opts['by'])) : undefined;
   if (by?.kind === 'duration') throw new UsageError('--by duration: the budget splits a loss caused by noise; use state, classical, tvd, purity or observable:P');
   const r = noiseBudget(file, {
-    ...(opts['device'] !== undefined ? { device: String(opts['device']) } : {}),
-    set: parseSetOptions(opts['set']),
-    ...(opts['noiseScale'] !== undefined ? { noiseScale: opts['noiseScale'] as number } : {}),
-    ...(opts['layout'] !== undefined ? { layout: opts['layout'] as number[] } : {}),
+    ...targetOf(file, opts),
     ...(by !== undefined ? { by } : {}),
   });
   if (opts['plot'] !== undefined) writeFileSync(String(opts['plot']), await (await import('../plots/index.js')).plotBudget(r));

@@ -4,7 +4,7 @@ import { runCommand } from './runCommand.js';
 import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
 import { makeStyle, wantColor } from './style.js';
 import { renderProblems } from './problems.js';
-import { collect, collectLayout, parseLayout, parseNoiseScale, parsePositiveInt } from './options.js';
+import { addTargetOptions, collect, collectLayout, parseLayout, parseNoiseScale, parsePositiveInt } from './options.js';
 
 /** Exit statuses of the fray command: success, internal error, input error, a failed `--require`. */
 export const EXIT = { ok: 0, internal: 1, input: 2, requirement: 3 } as const;
@@ -177,8 +177,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     });
   compare.exitOverride();
 
-  const sweep = program
-    .command('sweep')
+  const sweep = addTargetOptions(program.command('sweep'), 'a fixed noise scale (unless noise-scale is varied)')
     .description('run one circuit over a grid of parameter or noise values: CSV/JSONL rows, a plot, shards for batch jobs')
     .argument('<file>', 'circuit file (YAML)')
     .addOption(new Option('--vary <key=range>', 'a key and its values: A..B:N, A..B:log:N or v1,v2,… with units where needed, e.g. qubits.all.t1=20us..200us:log:10, noise-scale=0..3:13 (repeatable: the Cartesian product, first outermost)').argParser(collect))
@@ -189,10 +188,6 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .option('--jobs <n>', "worker threads, whole points each (default: the machine's cores); the output is the same for any n", parsePositiveInt('--jobs'))
     .option('--shard <i/n>', 'compute only points with index ≡ I (mod N) — for batch array jobs; join the parts with fray merge')
     .option('--resume', 'continue --out FILE: skip the points already in it')
-    .addOption(new Option('--set <key=value...>', 'fixed overrides before each point\'s own (as in run)'))
-    .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
-    .option('--noise-scale <c>', 'a fixed noise scale (unless noise-scale is varied)', parseNoiseScale)
-    .option('--layout <p0,p1,...>', 'place circuit qubit i on device qubit P_i', parseLayout)
     .option('--quiet', 'no progress on stderr')
     .addHelpText(
       'after',
@@ -223,18 +218,13 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     });
   merge.exitOverride();
 
-  const threshold = program
-    .command('threshold')
+  const threshold = addTargetOptions(program.command('threshold'), 'a fixed noise scale (unless noise-scale is the varied key)')
     .description('find the value of one key at which a condition is just met (bracketing and bisection)')
     .argument('<file>', 'circuit file (YAML)')
     .requiredOption('--target <cond>', 'the condition, METRIC OP NUMBER, e.g. state>=0.95')
     .requiredOption('--vary <key=a..b>', 'the key and its range, e.g. gates.cx.error=0.0001..0.05, qubits.all.t1=10us..200us, noise-scale=0..5')
     .option('--tol <x>', 'stop when the bracket is this narrow, in the range\'s unit (default: a millionth of the range)')
     .option('--json', 'print one JSON object instead of the report')
-    .addOption(new Option('--set <key=value...>', 'fixed overrides (as in run)'))
-    .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
-    .option('--noise-scale <c>', 'a fixed noise scale (unless noise-scale is the varied key)', parseNoiseScale)
-    .option('--layout <p0,p1,...>', 'place circuit qubit i on device qubit P_i', parseLayout)
     .addHelpText(
       'after',
       '\nExamples:\n' +
@@ -249,17 +239,12 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     });
   threshold.exitOverride();
 
-  const budget = program
-    .command('budget')
+  const budget = addTargetOptions(program.command('budget'), 'multiply every noise strength by C first')
     .description('where the infidelity comes from: each noise source alone, each left out, the remainder, per qubit')
     .argument('<file>', 'circuit file (YAML)')
     .option('--by <metric>', 'split the loss of state (default: 1 − F), classical, tvd, purity or observable:P')
     .option('--json', 'print one JSON object instead of the tables')
     .option('--plot <file.svg>', 'draw each source\'s loss as bars')
-    .addOption(new Option('--set <key=value...>', 'overrides (as in run)'))
-    .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
-    .option('--noise-scale <c>', 'multiply every noise strength by C first', parseNoiseScale)
-    .option('--layout <p0,p1,...>', 'place circuit qubit i on device qubit P_i', parseLayout)
     .addHelpText(
       'after',
       '\nExamples:\n' +

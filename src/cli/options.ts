@@ -1,6 +1,7 @@
 import { parseOverride, type Override } from '../format/overrides.js';
 import { UsageError } from './main.js';
-import { parseCondition, parseMetric, type Condition, type Metric } from '../studies/index.js';
+import { Option, type Command } from 'commander';
+import { parseCondition, parseMetric, type Condition, type Metric, type StudyTarget } from '../studies/index.js';
 
 /**
  * Option parsers shared by the commands (run, compare, sweep, budget, threshold): each turns
@@ -61,4 +62,24 @@ export function parseConditionOption(option: string, text: string): Condition {
   const c = parseCondition(text);
   if ('error' in c) throw new UsageError(`${option} ${c.error}`);
   return c;
+}
+
+/** The options every study command shares with run: --set, --device, --noise-scale, --layout. */
+export function addTargetOptions(cmd: Command, scaleHelp: string): Command {
+  return cmd
+    .addOption(new Option('--set <key=value...>', 'fixed overrides of a parameter or profile field (as in run)'))
+    .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
+    .option('--noise-scale <c>', scaleHelp, parseNoiseScale)
+    .option('--layout <p0,p1,...>', 'place circuit qubit i on device qubit P_i', parseLayout);
+}
+
+/** The values of addTargetOptions's options, as a study target for `file`. */
+export function targetOf(file: string, opts: Record<string, unknown>): StudyTarget {
+  return {
+    file,
+    ...(opts['device'] !== undefined ? { device: String(opts['device']) } : {}),
+    set: parseSetOptions(opts['set']),
+    ...(opts['noiseScale'] !== undefined ? { noiseScale: opts['noiseScale'] as number } : {}),
+    ...(opts['layout'] !== undefined ? { layout: opts['layout'] as number[] } : {}),
+  };
 }

@@ -20,7 +20,7 @@ import {
   type Varied,
 } from '../studies/index.js';
 import { UsageError, type CliIO } from './main.js';
-import { parseConditionOption, parseMetricOption, parseSetOptions } from './options.js';
+import { parseConditionOption, parseMetricOption, targetOf } from './options.js';
 import { makeProgress } from './progress.js';
 import { renderTable } from './table.js';
 
@@ -51,11 +51,7 @@ export async function sweepCommand(file: string, opts: Record<string, unknown>, 
   if (shard !== undefined && out === undefined) throw new UsageError('--shard needs --out FILE (each shard writes its own file for fray merge)');
   const plotted: Metric[] = metrics.length > 0 ? metrics : target !== undefined ? [target.metric] : [{ kind: 'state' }];
   const plan = planSweep({
-    file,
-    ...(opts['device'] !== undefined ? { device: String(opts['device']) } : {}),
-    set: parseSetOptions(opts['set']),
-    ...(opts['noiseScale'] !== undefined ? { noiseScale: opts['noiseScale'] as number } : {}),
-    ...(opts['layout'] !== undefined ? { layout: opts['layout'] as number[] } : {}),
+    ...targetOf(file, opts),
     vary,
     metrics: [...plotted, ...(target !== undefined ? [target.metric] : [])],
   });

@@ -1,7 +1,7 @@
 import { findThreshold, parseInterval, parseQuantity, type ThresholdResult } from '../studies/index.js';
 import { toJson } from '../results/json.js';
 import { EXIT, UsageError, type CliIO } from './main.js';
-import { parseConditionOption, parseSetOptions } from './options.js';
+import { parseConditionOption, targetOf } from './options.js';
 import { renderTable } from './table.js';
 
 /** `fray threshold FILE --target COND --vary KEY=A..B`: exit status 3 when the target is met nowhere in the range. */
@@ -16,11 +16,7 @@ export async function thresholdCommand(file: string, opts: Record<string, unknow
     tol = q.value;
   }
   const r = findThreshold({
-    file,
-    ...(opts['device'] !== undefined ? { device: String(opts['device']) } : {}),
-    set: parseSetOptions(opts['set']),
-    ...(opts['noiseScale'] !== undefined ? { noiseScale: opts['noiseScale'] as number } : {}),
-    ...(opts['layout'] !== undefined ? { layout: opts['layout'] as number[] } : {}),
+    ...targetOf(file, opts),
     target,
     vary,
     ...(tol !== undefined ? { tol } : {}),

@@ -3,12 +3,11 @@ import { scheduleCircuit, simulateLoaded } from '../api/simulate.js';
 import type { LoadedCircuit } from '../api/loadCircuit.js';
 import type { Operation } from '../circuit/circuit.js';
 import { plainKinds, type NoiseKindsSpec } from '../format/noiseKindsSpec.js';
-import type { Override } from '../format/overrides.js';
 import { gateNoise } from '../noise/gateNoise.js';
 import type { QubitNoise } from '../noise/profile.js';
 import { qubitName } from '../format/register.js';
 import { metricLoss, metricName, metricValue, observablesOf, type Metric } from './metrics.js';
-import { loadOptionsOf, SourceCache } from './variant.js';
+import { loadOptionsOf, SourceCache, type StudyTarget } from './variant.js';
 
 /**
  * `fray budget`: where a circuit's loss comes from. The noise is cut into disjoint sources
@@ -60,11 +59,7 @@ export interface BudgetResult {
 }
 
 /** Options of a budget. */
-export interface BudgetOptions {
-  readonly device?: string;
-  readonly set?: readonly Override[];
-  readonly noiseScale?: number;
-  readonly layout?: readonly number[];
+export interface BudgetOptions extends Omit<StudyTarget, 'file'> {
   /** The metric whose loss is split (default state fidelity: loss 1 − F). */
   readonly by?: Metric;
 }

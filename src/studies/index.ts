@@ -18,7 +18,7 @@ export type { Metric } from './metrics.js';
 export { parseCondition, meets, failedConditions, compareWith } from './conditions.js';
 export type { Condition, ComparisonOp } from './conditions.js';
 export { runVariant, SourceCache, countOperations, loadOptionsOf } from './variant.js';
-export type { VariantChoice, StudyRunSettings, OperationCounts } from './variant.js';
+export type { VariantChoice, StudyRunSettings, StudyTarget, OperationCounts } from './variant.js';
 export { compareVariants, variantLabel, fmt } from './compare.js';
 export type { CompareOptions, CompareResult, ComparedVariant } from './compare.js';
 export { parseVary, parseInterval, parseQuantity, spaced, valueText, UNIT_FAMILIES, NOISE_SCALE_KEY } from './ranges.js';

@@ -79,6 +79,17 @@ function commonUnit(qs: readonly { unit: string | null }[], text: string): strin
   return qs[0]!.unit;
 }
 
+/** The two ends of `A..B` in one unit. */
+function parseEnds(aText: string, bText: string, text: string): { a: number; b: number; unit: string | null } | { error: string } {
+  const a = parseQuantity(aText);
+  const b = parseQuantity(bText);
+  if ('error' in a) return a;
+  if ('error' in b) return b;
+  const unit = commonUnit([a, b], text);
+  if (typeof unit === 'object' && unit !== null) return unit;
+  return { a: a.value, b: b.value, unit };
+}
+
 /** Parses `KEY=RANGE` into the key's values. */
 export function parseVary(text: string): Varied | { error: string } {
   const kr = splitKey(text);
@@ -86,17 +97,13 @@ export function parseVary(text: string): Varied | { error: string } {
   const { key, range } = kr;
   const m = /^(.+?)\.\.(.+?)(?::(log))?:(\d+)$/.exec(range);
   if (m !== null) {
-    const a = parseQuantity(m[1]!);
-    const b = parseQuantity(m[2]!);
-    if ('error' in a) return a;
-    if ('error' in b) return b;
-    const unit = commonUnit([a, b], text);
-    if (typeof unit === 'object' && unit !== null) return unit;
+    const ends = parseEnds(m[1]!, m[2]!, text);
+    if ('error' in ends) return ends;
     const n = Number(m[4]);
     if (!Number.isSafeInteger(n) || n < 1 || n > MAX_POINTS_PER_KEY) return { error: `'${text}': the number of points must be from 1 to ${MAX_POINTS_PER_KEY}` };
     const log = m[3] === 'log';
-    if (log && !(a.value > 0 && b.value > 0)) return { error: `'${text}': a log range needs both ends above zero` };
-    return { key, values: spaced(a.value, b.value, n, log), unit, log, text };
+    if (log && !(ends.a > 0 && ends.b > 0)) return { error: `'${text}': a log range needs both ends above zero` };
+    return { key, values: spaced(ends.a, ends.b, n, log), unit: ends.unit, log, text };
   }
   if (range.includes('..')) return { error: `'${text}': a range needs its number of points, e.g. ${key}=${range}:10 (or ${key}=${range}:log:10)` };
   const items = range.split(',').map((s) => parseQuantity(s));
@@ -113,14 +120,10 @@ export function parseInterval(text: string): Interval | { error: string } {
   if ('error' in kr) return kr;
   const m = /^(.+?)\.\.(.+)$/.exec(kr.range);
   if (m === null) return { error: `'${text}': expected KEY=A..B, e.g. gates.cx.error=0.0001..0.05` };
-  const a = parseQuantity(m[1]!);
-  const b = parseQuantity(m[2]!);
-  if ('error' in a) return a;
-  if ('error' in b) return b;
-  const unit = commonUnit([a, b], text);
-  if (typeof unit === 'object' && unit !== null) return unit;
-  if (!(a.value < b.value)) return { error: `'${text}': the interval must go from a smaller to a larger value` };
-  return { key: kr.key, lo: a.value, hi: b.value, unit, text };
+  const ends = parseEnds(m[1]!, m[2]!, text);
+  if ('error' in ends) return ends;
+  if (!(ends.a < ends.b)) return { error: `'${text}': the interval must go from a smaller to a larger value` };
+  return { key: kr.key, lo: ends.a, hi: ends.b, unit: ends.unit, text };
 }
 
 /** Most points of one varied key. */

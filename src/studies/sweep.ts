@@ -6,7 +6,7 @@ import { instantiate } from '../api/loadCircuit.js';
 import { formatProblem, InputError, ProblemList, type Problem } from '../format/problem.js';
 import { metricName, metricProblem, observablesOf, type Metric } from './metrics.js';
 import { NOISE_SCALE_KEY, valueText, type Varied } from './ranges.js';
-import { loadOptionsOf, runVariant, SourceCache, type VariantChoice } from './variant.js';
+import { loadOptionsOf, runVariant, SourceCache, type StudyTarget, type VariantChoice } from './variant.js';
 
 /**
  * `fray sweep`: one circuit over the Cartesian product of varied keys (the first key
@@ -16,14 +16,8 @@ import { loadOptionsOf, runVariant, SourceCache, type VariantChoice } from './va
  */
 
 /** What a sweep runs: the circuit, the fixed choices, the varied keys, the reported observables. */
-export interface SweepSpec {
-  readonly file: string;
-  readonly device?: string;
-  /** Fixed overrides applied before each point's own. */
-  readonly set?: readonly Override[];
-  /** A fixed noise scale (a varied `noise-scale` replaces it). */
-  readonly noiseScale?: number;
-  readonly layout?: readonly number[];
+export interface SweepSpec extends StudyTarget {
+  /** The keys and their values (a varied `noise-scale` replaces a fixed noise scale). */
   readonly vary: readonly Varied[];
   /** Metrics reported (their Pauli strings are observed at every point). */
   readonly metrics?: readonly Metric[];

@@ -1,10 +1,9 @@
-import type { Override } from '../format/overrides.js';
 import { fmt } from './compare.js';
 import { meets, type Condition } from './conditions.js';
 import { metricValue } from './metrics.js';
 import { NOISE_SCALE_KEY, valueText, type Interval } from './ranges.js';
 import { runPoint } from './sweep.js';
-import { SourceCache, type VariantChoice } from './variant.js';
+import { SourceCache, type StudyTarget, type VariantChoice } from './variant.js';
 
 /**
  * `fray threshold`: the value of one key at which a condition is just met, by bracketing and
@@ -20,12 +19,7 @@ export const THRESHOLD_SCAN_POINTS = 5;
 export const MONOTONE_TOLERANCE = 1e-12;
 
 /** Options of a threshold search. */
-export interface ThresholdOptions {
-  readonly file: string;
-  readonly device?: string;
-  readonly set?: readonly Override[];
-  readonly noiseScale?: number;
-  readonly layout?: readonly number[];
+export interface ThresholdOptions extends StudyTarget {
   readonly target: Condition;
   readonly vary: Interval;
   /** Stop when the bracket is this narrow (base units); default (B − A)·1e-6. */

@@ -19,6 +19,17 @@ export interface VariantChoice {
   readonly layout?: readonly number[];
 }
 
+/** What every study starts from: a circuit file, optionally another device, fixed overrides, scale and placement. */
+export interface StudyTarget {
+  readonly file: string;
+  /** A device profile replacing the circuit's own. */
+  readonly device?: string;
+  /** Fixed `--set` overrides (a study's own values come after them and win). */
+  readonly set?: readonly Override[];
+  readonly noiseScale?: number;
+  readonly layout?: readonly number[];
+}
+
 /** Settings of every run of a study. */
 export interface StudyRunSettings {
   /** Extra Pauli strings every run reports (what observable metrics need). */
