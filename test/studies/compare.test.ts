@@ -80,3 +80,28 @@ describe('the condition language', () => {
     expect('error' in parseCondition('state >= high')).toBe(true);
   });
 });
+
+describe('fray compare outputs', () => {
+  it('--csv writes one parsable row per variant, best first; --plot writes SVG; --layout shows in the JSON', async () => {
+    const { mkdtempSync, readFileSync } = await import('node:fs');
+    const { join } = await import('node:path');
+    const { tmpdir } = await import('node:os');
+    const { parse } = await import('csv-parse/sync');
+    const { XMLValidator } = await import('fast-xml-parser');
+    const dir = mkdtempSync(join(tmpdir(), 'fray-compare-'));
+    const dev = tinyDevice();
+    const r = await fray('compare', ghzChain(dev), '--layout', '0,1,2', '--layout', '2,1,0', '--csv', join(dir, 'c.csv'), '--plot', join(dir, 'c.svg'), '--json');
+    const j = JSON.parse(r.out);
+    const rows = parse(readFileSync(join(dir, 'c.csv'), 'utf8'), { columns: true }) as Record<string, string>[];
+    expect(rows.map((x) => Number(x['fidelity_state']))).toEqual(j.variants.map((v: { fidelity: { state: number } }) => v.fidelity.state));
+    expect(rows.map((x) => x['layout'])).toEqual(j.variants.map((v: { layout: number[] }) => v.layout.join(' ')));
+    expect(Object.keys(rows[0]!).slice(0, 6)).toEqual(['rank', 'file', 'device', 'layout', 'name', 'duration_ns']);
+    const svg = readFileSync(join(dir, 'c.svg'), 'utf8');
+    expect(XMLValidator.validate(svg)).toBe(true);
+    expect(svg).toContain('state fidelity');
+    // placed backwards, the weak device qubit 2 holds circuit qubit 0, which waits for both cx
+    const run = JSON.parse((await fray('run', ghzChain(dev), '--layout', '2,1,0', '--json')).out);
+    expect(run.layout).toEqual([2, 1, 0]);
+    expect(j.variants.find((v: { layout: number[] }) => v.layout[0] === 2).fidelity).toEqual(run.fidelity);
+  });
+});

@@ -149,3 +149,24 @@ describe('fray sweep', () => {
     expect(r.out).toMatch(/\n\s+0\s+1\.000000\n/);
   });
 });
+
+describe('sweep progress and keys', () => {
+  it('off a terminal, progress is one line per 10% on stderr; --quiet prints nothing', async () => {
+    const r = await fray('sweep', chain, '--vary', 'noise-scale=0..1:4', '--out', join(dir, 'p.csv'), '--jobs', '1');
+    const lines = r.err.trim().split('\n');
+    expect(lines.slice(0, -1).map((l) => /^sweep: (\d+)\/4 points \((\d+)%\)/.exec(l)?.[2])).toEqual(['20', '50', '70', '100']);
+    expect(lines.at(-1)).toBe(`sweep: 4 points written to ${join(dir, 'p.csv')}`);
+    expect((await fray('sweep', chain, '--vary', 'noise-scale=0..1:4', '--out', join(dir, 'q.csv'), '--quiet')).err).toBe('');
+  });
+
+  it('noise-scale=0 rows are the ideal figures; a duration key is passed in ns', async () => {
+    const f = join(dir, 'keys.jsonl');
+    await fray('sweep', chain, '--vary', 'noise-scale=0,1', '--vary', 'qubits.2.t1=5us,20us', '--out', f, '--quiet');
+    const rows = readFileSync(f, 'utf8').trim().split('\n').slice(1).map((l) => JSON.parse(l));
+    expect(rows[0].point).toEqual({ 'noise-scale': 0, 'qubits.2.t1': 5000 });
+    expect(rows[0].result.fidelity.state).toBeCloseTo(1, 12);
+    expect(rows[2].result.fidelity.state).toBeLessThan(rows[3].result.fidelity.state); // shorter T1 on qubit 2, lower fidelity
+    const single = JSON.parse((await fray('run', chain, '--set', 'qubits.2.t1=5us', '--json')).out);
+    expect(rows[2].result.fidelity).toEqual(single.fidelity);
+  });
+});
