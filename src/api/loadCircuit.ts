@@ -35,6 +35,8 @@ export interface LoadedCircuit {
   readonly noiseScale?: number;
   /** The placement on the device, when one was given. */
   readonly layout?: readonly number[];
+  /** The `--set` overrides as given (problems located on the command line name them). */
+  readonly overrideTexts?: readonly string[];
 }
 
 /**
@@ -143,6 +145,7 @@ export function instantiate(source: CircuitSource, problems: ProblemList, option
     warnings: problems.warnings,
     ...(scale !== undefined && scale !== 1 ? { noiseScale: scale } : {}),
     ...(options.layout !== undefined ? { layout: [...options.layout] } : {}),
+    ...(split.texts.length > 0 ? { overrideTexts: split.texts } : {}),
   };
 }
 

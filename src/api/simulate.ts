@@ -18,6 +18,7 @@ import { computeFigures, DEFAULT_SEED, type Figures } from '../results/report.js
 import { scheduleOperations, type Schedule } from '../schedule/schedule.js';
 import { loadCircuit, type LoadedCircuit, type LoadOptions } from './loadCircuit.js';
 import { pauliStringProblem } from '../circuit/pauliString.js';
+import { explainCommandLine } from '../format/overrides.js';
 
 /** Options of one simulation run. */
 export interface SimulateOptions {
@@ -146,6 +147,8 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
   }
   const schedule = scheduleCircuit(circuit, profile);
   const program = buildProgram(circuit, profile, schedule, problems);
+  // Problems at positions on the command line name the --set they came from.
+  if (loaded.overrideTexts !== undefined) problems.items.splice(0, problems.items.length, ...explainCommandLine(problems.items, loaded.overrideTexts));
   if (loaded.noiseScale !== undefined) {
     // An `error:` the scale pushed out of reach is the scale's doing: say so.
     problems.items.forEach((p, i) => {

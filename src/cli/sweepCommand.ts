@@ -104,6 +104,9 @@ export async function sweepCommand(file: string, opts: Record<string, unknown>, 
     const all = out !== undefined && format !== undefined ? readAllRows(out, format, rows) : rows;
     writeFileSync(String(opts['plot']), await (await import('../plots/index.js')).plotSweep(plan, check, all, plotted, target));
   }
+  // A warning repeats at many points (the same file position): say each once.
+  const warnings = [...new Set(rows.flatMap((r) => r.result.warnings))];
+  if (warnings.length > 0 && opts['quiet'] !== true) io.stderr.write(`sweep: warnings at some points:\n${warnings.map((w) => `  ${w}\n`).join('')}`);
   if (out === undefined) io.stdout.write(renderSweep(plan, rows, plotted));
   else if (opts['quiet'] !== true) io.stderr.write(`sweep: ${rows.length} point${rows.length === 1 ? '' : 's'} written to ${out}${skip.size > 0 ? ` (${skip.size} already there)` : ''}\n`);
 }

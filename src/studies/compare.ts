@@ -43,6 +43,8 @@ export interface ComparedVariant {
   readonly value: number;
   /** The conditions this variant fails, as written (empty when it meets all). */
   readonly failed: readonly string[];
+  /** The run's warnings (`FILE:LINE:COL: message`), as `fray run --json` gives them. */
+  readonly warnings: readonly string[];
 }
 
 /** The outcome of a comparison, best first. */
@@ -90,6 +92,7 @@ export function compareVariants(files: readonly string[], options: CompareOption
           ...(r.observables !== undefined ? { observables: r.observables } : {}),
           value: metricValue(r, by),
           failed: failedConditions(r, conditions),
+          warnings: r.warnings,
         });
       }
     }
