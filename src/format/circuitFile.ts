@@ -96,7 +96,11 @@ export function readCircuitTree(
   if (!problems.ok) return undefined;
 
   const gateArity = new Map<string, number>();
-  for (const g of gates.names()) gateArity.set(g, gates.get(g)!.qubits);
+  const compositeGates = new Set<string>();
+  for (const g of gates.names()) {
+    gateArity.set(g, gates.get(g)!.qubits);
+    if (gates.get(g)!.kind === 'composite') compositeGates.add(g);
+  }
   return {
     file,
     name,
@@ -104,6 +108,7 @@ export function readCircuitTree(
     params,
     channels,
     gateArity,
+    compositeGates,
     observe,
     device,
     inlineNoise,

@@ -1,6 +1,7 @@
 import { suggest } from '../circuit/suggest.js';
 import { evaluateReal } from '../circuit/expression.js';
 import { DURATION_UNITS, parseDuration } from './duration.js';
+import { FREQUENCY_UNITS, parseFrequency } from './frequency.js';
 import type { ProblemList, SourcePosition } from './problem.js';
 import { describe, type YEntry, type YMap, type YNode, type YScalar } from './yamlTree.js';
 
@@ -116,43 +117,78 @@ export function readProbability(node: YNode, what: string, problems: ProblemList
   return value;
 }
 
-/** `EXPRESSION UNIT`: an expression, whitespace, then a duration unit that scales the whole expression. */
-const DURATION_EXPRESSION_RE = /^\s*(.*?\S)\s+(ns|us|µs|μs|ms|s)\s*$/;
-
 /**
  * A duration with a unit, in nanoseconds. With `env` the number may be an expression of
  * the circuit's params, the unit last after a space, scaling the whole expression:
  * `tau us` and `(2*tau + 1) us` are tau and 2·tau + 1 microseconds.
  */
 export function readDuration(node: YNode, what: string, problems: ProblemList, env?: NumberEnv): number | undefined {
+  return readWithUnit(node, what, problems, 'bad-duration', 'a duration with a unit such as 35ns or 1.2us', (t) => {
+    const r = parseDuration(t);
+    return 'error' in r ? r : { value: r.ns };
+  }, { units: DURATION_UNITS, negative: false, ...(env !== undefined ? { env } : {}) });
+}
+
+/** A frequency with a unit (Hz, kHz, MHz, GHz), in hertz; either sign. With `env`, as readDuration: `"delta kHz"`. */
+export function readFrequency(node: YNode, what: string, problems: ProblemList, env?: NumberEnv): number | undefined {
+  return readWithUnit(node, what, problems, 'bad-frequency', 'a frequency with a unit such as 80kHz or -1.5MHz', (t) => {
+    const r = parseFrequency(t);
+    return 'error' in r ? r : { value: r.hz };
+  }, { units: FREQUENCY_UNITS, negative: true, ...(env !== undefined ? { env } : {}) });
+}
+
+/** `EXPRESSION UNIT`: an expression, whitespace, then a unit word that scales the whole expression. */
+const UNIT_EXPRESSION_RE = /^\s*(.*?\S)\s+([A-Za-zµμ]+)\s*$/;
+
+/** How a quantity with a unit may also be written as an expression of the params. */
+interface UnitExpressions {
+  readonly units: Readonly<Record<string, number>>;
+  /** Whether a negative value is allowed (a frequency) or not (a duration). */
+  readonly negative: boolean;
+  readonly env?: NumberEnv;
+}
+
+/** A scalar read as a number with a unit by `parse` (or, with params in scope, `EXPRESSION UNIT`); problems under `code`. */
+function readWithUnit(
+  node: YNode,
+  what: string,
+  problems: ProblemList,
+  code: string,
+  expected: string,
+  parse: (text: string) => { value: number } | { error: string },
+  expr: UnitExpressions,
+): number | undefined {
   if (node.kind !== 'scalar' || node.value === null || typeof node.value === 'boolean') {
-    problems.error(node.at, 'bad-duration', `${what} must be a duration with a unit such as 35ns or 1.2us, not ${describe(node)}`);
+    problems.error(node.at, code, `${what} must be ${expected}, not ${describe(node)}`);
     return undefined;
   }
   const text = String(node.value);
+  const env = expr.env;
   if (env !== undefined && typeof node.value === 'string') {
-    const m = DURATION_EXPRESSION_RE.exec(text);
-    const r = m !== null ? evaluateIn(node, m[1]!, env, what, 'bad-duration', problems) : undefined;
+    const m = UNIT_EXPRESSION_RE.exec(text);
+    const size = m !== null ? expr.units[m[2]!] : undefined;
+    const r = size !== undefined ? evaluateIn(node, m![1]!, env, what, code, problems) : undefined;
     if (r !== undefined && 'failed' in r) return undefined;
     if (r !== undefined) {
-      const ns = r.value * DURATION_UNITS[m![2]!]!;
-      if (!(ns >= 0 && Number.isFinite(ns))) {
-        problems.error(node.at, 'out-of-range', `${what} must be a duration of zero or more, not ${shown(r.value, m![1])} ${m![2]}`);
+      const v = r.value * size!;
+      if (!Number.isFinite(v) || (!expr.negative && v < 0)) {
+        problems.error(node.at, 'out-of-range', `${what} must be ${expr.negative ? 'finite' : 'zero or more'}, not ${shown(r.value, m![1])} ${m![2]}`);
         return undefined;
       }
-      return ns;
+      return v;
     }
-    if (m === null && !PLAIN_NUMBER_RE.test(text) && !('error' in evaluateReal(text, env))) {
-      problems.error(node.at, 'bad-duration', `${what}: '${text}' has no unit; write the unit last after a space, e.g. '${text.trim()} ns' or '${text.trim()} us'`);
+    if (size === undefined && !PLAIN_NUMBER_RE.test(text) && !('error' in evaluateReal(text, env))) {
+      const u = Object.keys(expr.units);
+      problems.error(node.at, code, `${what}: '${text}' has no unit; write the unit last after a space, e.g. '${text.trim()} ${u[0]}' or '${text.trim()} ${u[1]}'`);
       return undefined;
     }
   }
-  const r = parseDuration(text);
+  const r = parse(text);
   if ('error' in r) {
-    problems.error(node.at, 'bad-duration', `${what}: ${r.error}`);
+    problems.error(node.at, code, `${what}: ${r.error}`);
     return undefined;
   }
-  return r.ns;
+  return r.value;
 }
 
 /** True for the word `none`, which switches a profile field off. */

@@ -8,7 +8,8 @@ import type { GateEntry, NoiseProfile, QubitNoise } from './profile.js';
  * The uniform noise scale C ≥ 0 (`--noise-scale`, the `noise-scale` sweep key, and the
  * noise amplification of zero-noise extrapolation): every noise *strength* is multiplied
  * by C — the rates 1/T1 and 1/T2 (so T1 → T1/C, T2 → T2/C), each noise-kind probability
- * (each Pauli component), `error`, both readout errors. Durations and the equilibrium
+ * (each Pauli component), `error`, both readout errors, and the coherent errors: each
+ * detuning, each coupling's ZZ strength, each `coherent:` angle. Durations and the equilibrium
  * excited population are not strengths and stay; a custom channel has no strength
  * parameter and stays as it is, with a warning. C = 0 is the noiseless device.
  *
@@ -16,8 +17,12 @@ import type { GateEntry, NoiseProfile, QubitNoise } from './profile.js';
  * one row (and a field missing from them fails to compile).
  */
 
-/** How a noise-kind field responds to the scale: a probability times C, each component times C, or unchanged. */
-export type KindScaling = 'probability' | 'components' | 'unscalable';
+/**
+ * How a noise-kind field responds to the scale: a probability times C, each component
+ * (of a Pauli distribution, bounded by a sum of 1) times C, each angle times C (unbounded),
+ * or unchanged.
+ */
+export type KindScaling = 'probability' | 'components' | 'angles' | 'unscalable';
 
 /** The scaling of every noise kind (data, so a new kind is one row). */
 export const KIND_SCALING: { readonly [K in keyof Required<NoiseKinds>]: KindScaling } = {
@@ -29,15 +34,17 @@ export const KIND_SCALING: { readonly [K in keyof Required<NoiseKinds>]: KindSca
   phase_flip: 'probability',
   bit_phase_flip: 'probability',
   pauli: 'components',
+  coherent: 'angles',
   channel: 'unscalable',
 };
 
-/** How a per-qubit field responds: a rate (time divided by C), a probability times C, or unchanged. */
-export const QUBIT_SCALING: { readonly [K in keyof QubitNoise]: 'time' | 'probability pair' | 'fixed' } = {
+/** How a per-qubit field responds: a time (divided by C, as its rate is multiplied), a strength times C (either sign), a probability pair times C, or unchanged. */
+export const QUBIT_SCALING: { readonly [K in keyof QubitNoise]: 'time' | 'strength' | 'probability pair' | 'fixed' } = {
   t1: 'time',
   t2: 'time',
   excited: 'fixed',
   readout: 'probability pair',
+  detuning: 'strength',
 };
 
 /** Tolerance on a scaled Pauli sum x + y + z ≤ 1 (the same slack as the reader's). */
@@ -72,6 +79,13 @@ export function scaleKinds(kinds: NoiseKindsSpec, c: number, where: string, fall
         out.pauli = { value: s, at };
         break;
       }
+      case 'angles': {
+        const a = loc.value as Record<string, number>;
+        const scaled: Record<string, number> = {};
+        for (const [k, v] of Object.entries(a)) if (typeof v === 'number') scaled[k] = v * c;
+        (out as Record<string, unknown>)[key] = { ...loc, value: scaled };
+        break;
+      }
       case 'unscalable':
         problems.warn(at, 'channel-not-scaled', `${label}: custom channel '${String(loc.value)}' of ${where} has no strength to scale and is applied as it is`);
         (out as Record<string, unknown>)[key] = loc;
@@ -89,6 +103,9 @@ function scaleQubit(q: QubitNoise, c: number): { noise: QubitNoise; above1: bool
     switch (QUBIT_SCALING[key]) {
       case 'time':
         out[key] = scaleTime(q[key] as number, c);
+        break;
+      case 'strength':
+        out[key] = (q[key] as number) * c;
         break;
       case 'probability pair': {
         const r = q.readout;
@@ -138,6 +155,13 @@ export function scaleNoise(circuit: Circuit, profile: NoiseProfile, c: number, p
   });
   return {
     circuit: { ...circuit, operations },
-    profile: { ...profile, qubits, reset, gateEntry: (name, qs) => gateEntry(name, qs) },
+    profile: {
+      ...profile,
+      qubits,
+      // each coupling's always-on ZZ strength is a rate like a detuning
+      couplings: profile.couplings === null ? null : profile.couplings.map((cp) => ({ ...cp, zz: cp.zz * c })),
+      reset,
+      gateEntry: (name, qs) => gateEntry(name, qs),
+    },
   };
 }

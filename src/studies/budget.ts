@@ -12,7 +12,8 @@ import { loadOptionsOf, SourceCache, type StudyTarget } from './variant.js';
 /**
  * `fray budget`: where a circuit's loss comes from. The noise is cut into disjoint sources
  * (relaxation T1 and pure dephasing per qubit, each gate name's noise kinds, each custom
- * channel, step annotations, readout), and each source's loss is measured two ways: with
+ * channel, step annotations, readout, and the coherent errors: detuning, always-on ZZ of the
+ * couplings, the gates' `coherent:` rotations), and each source's loss is measured two ways: with
  * only that source on, and as the loss removed when only that source is off. Noise does not
  * add up exactly, so the total minus the sum of the single-source losses is reported as the
  * remainder (the interaction of the sources), never dropped.
@@ -95,7 +96,7 @@ export function noiseBudget(file: string, options: BudgetOptions = {}): BudgetRe
       kinds.depolarizing = { value: g.solvedDepolarizing ?? 0, at };
     }
     const gateSource = op.kind === 'gate' ? `gate:${op.name}` : op.kind === 'reset' ? 'gate:reset' : 'step';
-    frozen.set(op, { kinds, sourceOf: (k) => (k === 'channel' ? `channel:${kinds.channel!.value}` : own ? 'step' : gateSource) });
+    frozen.set(op, { kinds, sourceOf: (k) => (k === 'channel' ? `channel:${kinds.channel!.value}` : k === 'coherent' ? 'coherent' : own ? 'step' : gateSource) });
   }
 
   // Which sources exist (each with at least some noise).
@@ -105,7 +106,9 @@ export function noiseBudget(file: string, options: BudgetOptions = {}): BudgetRe
     if (Number.isFinite(q.t1)) present.add(`relaxation:${i}`);
     if (pureDephasingRate(q) > 0) present.add(`dephasing:${i}`);
     if (q.readout.zeroAsOne > 0 || q.readout.oneAsZero > 0) present.add('readout');
+    if (q.detuning !== 0) present.add('detuning');
   });
+  if ((profile.couplings ?? []).some((c) => c.zz !== 0)) present.add('zz');
   for (const f of frozen.values()) for (const [k, v] of Object.entries(f.kinds)) if (v !== undefined && nonZero(v.value)) present.add(f.sourceOf(k));
   const WHERE = ['where:idle', 'where:gates'];
   const all = new Set([...present, ...WHERE]);
@@ -116,7 +119,13 @@ export function noiseBudget(file: string, options: BudgetOptions = {}): BudgetRe
       const t1 = on.has(`relaxation:${i}`) ? q.t1 : Infinity;
       const phi = on.has(`dephasing:${i}`) ? pureDephasingRate(q) : 0;
       const rate2 = (Number.isFinite(t1) ? 1 / (2 * t1) : 0) + phi;
-      return { ...q, t1, t2: rate2 > 0 ? 1 / rate2 : Infinity, readout: on.has('readout') ? q.readout : { zeroAsOne: 0, oneAsZero: 0 } };
+      return {
+        ...q,
+        t1,
+        t2: rate2 > 0 ? 1 / rate2 : Infinity,
+        readout: on.has('readout') ? q.readout : { zeroAsOne: 0, oneAsZero: 0 },
+        detuning: on.has('detuning') ? q.detuning : 0,
+      };
     });
     const gatesRelax = on.has('where:gates');
     const operations = circuit.operations.map((op): Operation => {
@@ -131,6 +140,7 @@ export function noiseBudget(file: string, options: BudgetOptions = {}): BudgetRe
       profile: {
         ...profile,
         qubits,
+        couplings: profile.couplings === null ? null : profile.couplings.map((c) => ({ ...c, zz: on.has('zz') ? c.zz : 0 })),
         idle: on.has('where:idle') ? profile.idle : 'none',
         gateEntry: (name, qs) => {
           const e = profile.gateEntry(name, qs);
@@ -162,6 +172,9 @@ export function noiseBudget(file: string, options: BudgetOptions = {}): BudgetRe
   for (const id of [...present].filter((a) => a.startsWith('channel:')).sort()) sources.push(row(id, `custom channel '${id.slice(8)}'`, [id]));
   if (present.has('step')) sources.push(row('step', "steps' own noise", ['step']));
   if (present.has('readout')) sources.push(row('readout', 'readout error', ['readout']));
+  if (present.has('detuning')) sources.push(row('detuning', 'detuning (drift of each qubit)', ['detuning']));
+  if (present.has('zz')) sources.push(row('zz', 'always-on ZZ of the couplings', ['zz']));
+  if (present.has('coherent')) sources.push(row('coherent', "gates' coherent errors", ['coherent']));
   sources.sort((a, b) => b.share - a.share || (a.id < b.id ? -1 : 1));
   const sum = sources.reduce((s, r) => s + r.only_on, 0);
 

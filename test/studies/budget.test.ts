@@ -59,3 +59,28 @@ describe('fray budget', () => {
     expect(text).toContain('loss of state fidelity (only this source on)');
   });
 });
+
+describe('fray budget with coherent noise', () => {
+  it('detuning, always-on ZZ and coherent gate errors are sources of their own; the total is the plain run’s', async () => {
+    const file = tempFile(
+      'coherent.yaml',
+      `qubits: 2
+noise:
+  qubits: { all: { t1: 50us, detuning: 30kHz } }
+  couplings: { "0 1": { zz: 80kHz } }
+  gates: { all: { duration: 40ns }, x: { coherent: { x: 0.05 } } }
+steps:
+  - h: 0
+  - x: 1
+  - idle: [0, 1]
+    for: 1us
+  - h: 0
+`,
+    );
+    const r = noiseBudget(file);
+    expect(r.sources.map((s) => s.id).sort()).toEqual(['coherent', 'detuning', 'relaxation', 'zz']);
+    const single = JSON.parse((await fray('run', file, '--json')).out);
+    expect(Math.abs(r.total - (1 - single.fidelity.state))).toBeLessThan(EXACT);
+    for (const s of r.sources) expect(s.only_on).toBeGreaterThan(0);
+  });
+});
