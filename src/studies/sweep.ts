@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import type { RunResult } from '../api/simulate.js';
 import type { Override } from '../format/overrides.js';
 import { instantiate } from '../api/loadCircuit.js';
-import { formatProblem, InputError, ProblemList, type Problem } from '../format/problem.js';
+import { InputError, ProblemList, type Problem } from '../format/problem.js';
 import { metricName, metricProblem, observablesOf, type Metric } from './metrics.js';
 import { NOISE_SCALE_KEY, valueText, type Varied } from './ranges.js';
 import { loadOptionsOf, runVariant, SourceCache, type StudyTarget, type VariantChoice } from './variant.js';
@@ -181,11 +181,11 @@ export function checkSweep(plan: SweepPlan, sel: SweepSelection = {}): SweepChec
     problems.items.length = 0;
     const loaded = instantiate(source, problems, loadOptionsOf(p.choice));
     for (const e of problems.errors) {
-      const key = formatProblem(e);
-      if (!seen.has(key)) {
-        seen.add(key);
-        errors.push({ ...e, message: `${e.message} (at point ${i}: ${describePoint(p.values)})` });
-      }
+      // One report per place and kind: the first point where it happens stands for the rest.
+      const key = `${e.file}:${e.line}:${e.col}:${e.code}`;
+      if (seen.has(key)) continue;
+      seen.add(key);
+      errors.push({ ...e, message: pointMessage(plan, e.message, i, p.values) });
     }
     if (loaded !== undefined) {
       for (const m of plan.spec.metrics ?? []) {
@@ -211,6 +211,19 @@ export interface SweepCheck {
   /** The circuit's `name:` and the device's name (for titles). */
   readonly name: string | null;
   readonly device: string | null;
+}
+
+/**
+ * A point's problem in the words of the sweep: an override of a varied key is named by its
+ * --vary and the value it had (`--vary qubits.all.t1=20us..50us:3 at qubits.all.t1=20000ns: …`);
+ * any other problem gets the point appended.
+ */
+function pointMessage(plan: SweepPlan, message: string, index: number, values: Readonly<Record<string, number>>): string {
+  for (const v of plan.spec.vary) {
+    const prefix = `--set ${v.key}=${valueText(values[v.key]!, v.unit)}: `;
+    if (message.startsWith(prefix)) return `--vary ${v.text} at ${prefix.slice('--set '.length, -2)}: ${message.slice(prefix.length)}`;
+  }
+  return `${message} (at point ${index}: ${describePoint(values)})`;
 }
 
 /** A sweep stops listing point problems after this many. */

@@ -124,7 +124,10 @@ describe('fray sweep', () => {
     const f = join(dir, 'never.csv');
     const r = await fray('sweep', chain, '--vary', 'gates.cx.error=0.5..1.5:3', '--out', f);
     expect(r.code).toBe(2);
-    expect(r.err).toContain("--set gates.cx.error=1.5: 'error' in gate entry 'cx' must be a probability between 0 and 1, not 1.5 (at point 2: gates.cx.error=1.5)");
+    expect(r.err).toBe("(command line):1:16: --vary gates.cx.error=0.5..1.5:3 at gates.cx.error=1.5: 'error' in gate entry 'cx' must be a probability between 0 and 1, not 1.5\n");
+    expect(() => readFileSync(f)).toThrow();
+    const unknown = await fray('sweep', chain, '--vary', 'qubit.all.t1=20us..50us:3');
+    expect(unknown.err).toBe("(command line):1:1: --vary qubit.all.t1=20us..50us:3 at qubit.all.t1=20000ns: 'qubit' is neither a parameter nor a profile key; did you mean 'qubits'?\n");
   });
 
   it('--plot writes SVG that parses as XML, with axis titles (units) and a title naming circuit and device', async () => {
