@@ -1,8 +1,8 @@
-import { writeFileSync } from 'node:fs';
 import { noiseBudget, type BudgetResult, type BudgetSource } from '../studies/index.js';
 import { toJson } from '../results/json.js';
 import { UsageError, type CliIO } from './main.js';
 import { parseMetricOption, targetOf } from './options.js';
+import { writeOutput } from './outputFiles.js';
 import { renderTable } from './table.js';
 
 /** `fray budget FILE`: where the loss of a metric comes from. */
@@ -13,7 +13,7 @@ export async function budgetCommand(file: string, opts: Record<string, unknown>,
     ...targetOf(file, opts),
     ...(by !== undefined ? { by } : {}),
   });
-  if (opts['plot'] !== undefined) writeFileSync(String(opts['plot']), await (await import('../plots/index.js')).plotBudget(r));
+  if (opts['plot'] !== undefined) writeOutput('--plot', String(opts['plot']), await (await import('../plots/index.js')).plotBudget(r));
   io.stdout.write(opts['json'] ? toJson(r) + '\n' : renderBudget(r));
 }
 

@@ -1,10 +1,10 @@
 import { formatDuration } from '../format/duration.js';
 import { compareVariants, variantLabel, type CompareResult } from '../studies/index.js';
-import { writeFileSync } from 'node:fs';
 import { stringify } from 'csv-stringify/sync';
 import { toJson } from '../results/json.js';
 import { EXIT, type CliIO } from './main.js';
 import { parseConditionOption, parseMetricOption, parseSetOptions } from './options.js';
+import { writeOutput } from './outputFiles.js';
 import { renderTable } from './table.js';
 
 /** `fray compare A.yaml B.yaml …`: ranks the variants; exit status 3 when one fails a --require. */
@@ -19,8 +19,8 @@ export async function compareCommand(files: string[], opts: Record<string, unkno
     require,
     common: { set, ...(opts['noiseScale'] !== undefined ? { noiseScale: opts['noiseScale'] as number } : {}) },
   });
-  if (opts['csv'] !== undefined) writeFileSync(String(opts['csv']), compareCsv(result));
-  if (opts['plot'] !== undefined) writeFileSync(String(opts['plot']), await (await import('../plots/index.js')).plotCompare(result));
+  if (opts['csv'] !== undefined) writeOutput('--csv', String(opts['csv']), compareCsv(result));
+  if (opts['plot'] !== undefined) writeOutput('--plot', String(opts['plot']), await (await import('../plots/index.js')).plotCompare(result));
   io.stdout.write(opts['json'] ? toJson(result) + '\n' : renderCompare(result));
   return result.variants.some((v) => v.failed.length > 0) ? EXIT.requirement : EXIT.ok;
 }

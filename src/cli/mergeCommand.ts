@@ -1,6 +1,7 @@
-import { readFileSync, writeFileSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import { fileStart, InputError } from '../format/problem.js';
 import { formatOf, mergeSweepFiles } from '../studies/index.js';
+import { writeOutput } from './outputFiles.js';
 import { UsageError, type CliIO } from './main.js';
 
 /** `fray merge PART… --out FILE`: joins a sweep's shard files in grid order. */
@@ -18,6 +19,6 @@ export async function mergeCommand(parts: string[], opts: Record<string, unknown
   });
   const merged = mergeSweepFiles(texts, format);
   if ('error' in merged) throw new InputError([{ ...fileStart(parts[0]!), severity: 'error', code: 'bad-merge', message: `merge: ${merged.error}` }]);
-  writeFileSync(out, merged.text);
+  writeOutput('--out', out, merged.text);
   if (opts['quiet'] !== true) io.stderr.write(`merge: ${parts.length} part${parts.length === 1 ? '' : 's'} written to ${out}\n`);
 }

@@ -1,4 +1,4 @@
-import { existsSync, openSync, readFileSync, truncateSync, writeSync, closeSync, writeFileSync } from 'node:fs';
+import { closeSync, existsSync, readFileSync, truncateSync, writeSync } from 'node:fs';
 import { parse } from 'csv-parse/sync';
 import { fileStart, InputError } from '../format/problem.js';
 import {
@@ -22,6 +22,7 @@ import {
 import { UsageError, type CliIO } from './main.js';
 import { parseConditionOption, parseMetricOption, targetOf } from './options.js';
 import { makeProgress } from './progress.js';
+import { openOutput, writeOutput } from './outputFiles.js';
 import { renderTable } from './table.js';
 
 /** `--shard I/N`. */
@@ -75,10 +76,10 @@ export async function sweepCommand(file: string, opts: Record<string, unknown>, 
       }
       skip = new Set(c.rows.map((r) => r.index));
       if (c.completeBytes < text.length) truncateSync(out, c.completeBytes);
-      if (format === 'csv' && c.columns !== undefined && c.columns.length === 0) writeFileSync(out, headerText(header, columns));
-      fd = openSync(out, 'a');
+      if (format === 'csv' && c.columns !== undefined && c.columns.length === 0) writeOutput('--out', out, headerText(header, columns));
+      fd = openOutput('--out', out, 'a');
     } else {
-      fd = openSync(out, 'w');
+      fd = openOutput('--out', out, 'w');
       writeSync(fd, headerText(header, columns));
     }
   }
@@ -102,7 +103,7 @@ export async function sweepCommand(file: string, opts: Record<string, unknown>, 
   }
   if (opts['plot'] !== undefined) {
     const all = out !== undefined && format !== undefined ? readAllRows(out, format, rows) : rows;
-    writeFileSync(String(opts['plot']), await (await import('../plots/index.js')).plotSweep(plan, check, all, plotted, target));
+    writeOutput('--plot', String(opts['plot']), await (await import('../plots/index.js')).plotSweep(plan, check, all, plotted, target));
   }
   // A warning repeats at many points (the same file position): say each once.
   const warnings = [...new Set(rows.flatMap((r) => r.result.warnings))];

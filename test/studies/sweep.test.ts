@@ -112,6 +112,12 @@ describe('fray sweep', () => {
     }
   });
 
+  it('an output path that cannot be written is an input error naming the option', async () => {
+    const r = await fray('sweep', chain, '--vary', 'wait=0,1', '--out', join(dir, 'no-such-folder', 'x.csv'));
+    expect(r.code).toBe(2);
+    expect(r.err).toBe(`fray: --out ${join(dir, 'no-such-folder', 'x.csv')}: cannot write it: its folder does not exist\n`);
+  });
+
   it('--resume refuses a file of another sweep', async () => {
     const f = join(dir, 'mine.csv');
     await fray('sweep', chain, '--vary', 'wait=0,1', '--out', f, '--quiet');
