@@ -157,7 +157,7 @@ function readParams(
     if (!declared.has(k)) {
       const near = suggest(k, [...declared]);
       const hint = near !== undefined ? `; did you mean '${near}'?` : declared.size > 0 ? `; it has: ${[...declared].join(', ')}` : '; it declares no params';
-      problems.error(at, 'unknown-param', `--set ${k}: the circuit has no parameter '${k}'${hint}`);
+      problems.error(at, 'unknown-param', `--set ${k}=${overrides[k]}: the circuit has no parameter '${k}'${hint}`);
     }
   }
   return { ...params };

@@ -220,10 +220,16 @@ export interface SweepCheck {
  */
 function pointMessage(plan: SweepPlan, message: string, index: number, values: Readonly<Record<string, number>>): string {
   for (const v of plan.spec.vary) {
-    const prefix = `--set ${v.key}=${valueText(values[v.key]!, v.unit)}: `;
-    if (message.startsWith(prefix)) return `--vary ${v.text} at ${prefix.slice('--set '.length, -2)}: ${message.slice(prefix.length)}`;
+    const renamed = asVaryMessage(message, v.key, valueText(values[v.key]!, v.unit), v.text);
+    if (renamed !== undefined) return renamed;
   }
   return `${message} (at point ${index}: ${describePoint(values)})`;
+}
+
+/** `--set KEY=VALUE: …` as `--vary RANGE at KEY=VALUE: …` when the message is about that override, else undefined. */
+export function asVaryMessage(message: string, key: string, value: string, varyText: string): string | undefined {
+  const prefix = `--set ${key}=${value}: `;
+  return message.startsWith(prefix) ? `--vary ${varyText} at ${key}=${value}: ${message.slice(prefix.length)}` : undefined;
 }
 
 /** A sweep stops listing point problems after this many. */

@@ -2,7 +2,9 @@ import { fmt } from './compare.js';
 import { meets, type Condition } from './conditions.js';
 import { metricValue } from './metrics.js';
 import { NOISE_SCALE_KEY, valueText, type Interval } from './ranges.js';
-import { runPoint } from './sweep.js';
+import { asVaryMessage, runPoint } from './sweep.js';
+import { InputError } from '../format/problem.js';
+import type { RunResult } from '../api/simulate.js';
 import { SourceCache, type StudyTarget, type VariantChoice } from './variant.js';
 
 /**
@@ -79,7 +81,15 @@ export function findThreshold(o: ThresholdOptions): ThresholdResult {
       ...(o.layout !== undefined ? { layout: o.layout } : {}),
     };
     const observe = target.metric.kind === 'observable' ? [target.metric.pauli] : [];
-    const result = runPoint(cache, { file: o.file, ...(o.device !== undefined ? { device: o.device } : {}) }, choice, observe);
+    let result: RunResult;
+    try {
+      result = runPoint(cache, { file: o.file, ...(o.device !== undefined ? { device: o.device } : {}) }, choice, observe);
+    } catch (e) {
+      // name the --vary and the value a problem came from, as sweeps do
+      if (!(e instanceof InputError)) throw e;
+      const value = valueText(x, vary.unit);
+      throw new InputError(e.problems.map((p) => ({ ...p, message: asVaryMessage(p.message, vary.key, value, vary.text) ?? p.message })));
+    }
     const m = metricValue(result, target.metric);
     const s = { value: x, metric: m, meets: meets(result, target) };
     samples.push(s);

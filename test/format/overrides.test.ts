@@ -55,7 +55,7 @@ describe('--set errors are located on the command line', () => {
     { set: { idle: 'nne' }, where: '(command line):1:6', says: "did you mean 'none'?" },
     { set: { 'qubits.all': '3us' }, where: '(command line):1:12', says: "--set qubits.all=3us: qubit entry 'all' must be a map of keys, not '3us'" },
     { set: { 'gates.cx.error': '' }, where: '(command line):1:16', says: 'the value is empty' },
-    { set: { thetta: '1' }, where: 'c.yaml:3:9', says: "--set thetta: the circuit has no parameter 'thetta'; did you mean 'theta'?" },
+    { set: { thetta: '1' }, where: 'c.yaml:3:9', says: "--set thetta=1: the circuit has no parameter 'thetta'; did you mean 'theta'?" },
   ];
   it.each(cases)('$set', ({ set, where, says }) => {
     const { errors } = load(BELL, { set });

@@ -63,5 +63,8 @@ describe('fray threshold', () => {
     const r = await fray('threshold', ghzPhaseFlip(2), '--target', 'state>=0.9', '--vary', 'p=0.5..0.1');
     expect(r.code).toBe(2);
     expect(r.err).toContain('the interval must go from a smaller to a larger value');
+    const key = await fray('threshold', ghzPhaseFlip(2), '--target', 'state>=0.9', '--vary', 'pp=0..0.5');
+    expect(key.code).toBe(2);
+    expect(key.err).toContain("--vary pp=0..0.5 at pp=0: the circuit has no parameter 'pp'; did you mean 'p'?");
   });
 });
