@@ -177,7 +177,8 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     });
   compare.exitOverride();
 
-  const sweep = addTargetOptions(program.command('sweep'), 'a fixed noise scale (unless noise-scale is varied)')
+  const sweep = program
+    .command('sweep')
     .description('run one circuit over a grid of parameter or noise values: CSV/JSONL rows, a plot, shards for batch jobs')
     .argument('<file>', 'circuit file (YAML)')
     .addOption(new Option('--vary <key=range>', 'a key and its values: A..B:N, A..B:log:N or v1,v2,… with units where needed, e.g. qubits.all.t1=20us..200us:log:10, noise-scale=0..3:13 (repeatable: the Cartesian product, first outermost)').argParser(collect))
@@ -196,13 +197,15 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
         '  fray sweep circuits/ghz5.yaml --vary gates.cx.error=0.001..0.03:log:12 --out cx.csv --target \'state>=0.9\' --plot cx.svg\n' +
         '  fray sweep circuits/ghz5.yaml --vary qubits.3.t1=10us..100us:8 --vary gates.cx.error=0.002,0.008,0.02 --plot heat.svg\n' +
         '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..3:100 --out part-$I.csv --shard $I/4   (then: fray merge part-*.csv --out all.csv)\n' +
-        '\nKeys are the --set keys (params, qubits.…, gates.…, idle, schedule) and noise-scale. CSV columns: point, the keys in base\n' +
+        '\nKeys are the --set keys (params, qubits.…, gates.…, couplings.…, idle, schedule) and noise-scale. CSV columns: point, the keys in base\n' +
         'units (ns, Hz, probabilities), duration_ns, fidelity_state, fidelity_classical, tvd, purity, observable_<P>_noisy/_ideal.',
     )
     .action(async (file: string, opts: Record<string, unknown>) => {
       const { sweepCommand } = await import('./sweepCommand.js');
       await sweepCommand(file, opts, io);
     });
+  // the options shared with run, listed after the command's own
+  addTargetOptions(sweep, 'a fixed noise scale (unless noise-scale is varied)');
   sweep.exitOverride();
 
   const merge = program
@@ -218,7 +221,8 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     });
   merge.exitOverride();
 
-  const threshold = addTargetOptions(program.command('threshold'), 'a fixed noise scale (unless noise-scale is the varied key)')
+  const threshold = program
+    .command('threshold')
     .description('find the value of one key at which a condition is just met (bracketing and bisection)')
     .argument('<file>', 'circuit file (YAML)')
     .requiredOption('--target <cond>', 'the condition, METRIC OP NUMBER, e.g. state>=0.95')
@@ -237,9 +241,12 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
       const { thresholdCommand } = await import('./thresholdCommand.js');
       exitWith(await thresholdCommand(file, opts, io));
     });
+  // the options shared with run, listed after the command's own
+  addTargetOptions(threshold, 'a fixed noise scale (unless noise-scale is the varied key)');
   threshold.exitOverride();
 
-  const budget = addTargetOptions(program.command('budget'), 'multiply every noise strength by C first')
+  const budget = program
+    .command('budget')
     .description('where the infidelity comes from: each noise source alone, each left out, the remainder, per qubit')
     .argument('<file>', 'circuit file (YAML)')
     .option('--by <metric>', 'split the loss of state (default: 1 − F), classical, tvd, purity or observable:P')
@@ -259,6 +266,8 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
       const { budgetCommand } = await import('./budgetCommand.js');
       await budgetCommand(file, opts, io);
     });
+  // the options shared with run, listed after the command's own
+  addTargetOptions(budget, 'multiply every noise strength by C first');
   budget.exitOverride();
   return program;
 }
