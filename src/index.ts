@@ -9,11 +9,36 @@
  */
 export { simulate, simulateLoaded, scheduleCircuit, measuredQubits } from './api/simulate.js';
 export type { Simulation, SimulateOptions, RunResult } from './api/simulate.js';
-export { loadCircuit, parseCircuitText, parseProfileText } from './api/loadCircuit.js';
-export type { LoadedCircuit, LoadOptions } from './api/loadCircuit.js';
+export { loadCircuit, parseCircuitText, parseProfileText, readCircuitSource, instantiate } from './api/loadCircuit.js';
+export type { LoadedCircuit, LoadOptions, CircuitSource } from './api/loadCircuit.js';
+export type { Override } from './format/overrides.js';
+export { scaleNoise } from './noise/scale.js';
+// Studies (src/studies/): decisions between variants under a noise budget, each returning data.
+export { compareVariants, planSweep, runSweep, checkSweep, mergeSweepFiles, findThreshold, noiseBudget } from './studies/index.js';
+export { parseCondition, parseMetric, parseVary, parseInterval, meets, metricValue } from './studies/index.js';
+export type {
+  CompareOptions,
+  CompareResult,
+  ComparedVariant,
+  Condition,
+  Metric,
+  SweepSpec,
+  SweepPlan,
+  SweepRow,
+  SweepRunOptions,
+  ThresholdOptions,
+  ThresholdResult,
+  BudgetOptions,
+  BudgetResult,
+  BudgetSource,
+  Varied,
+  Interval,
+} from './studies/index.js';
+// Plots (src/plots/): vega-lite specs rendered to SVG without a browser.
+export { renderSvg, plotCompare, plotSweep, plotBudget } from './plots/index.js';
 export { InputError, ProblemList, formatProblem } from './format/problem.js';
 export type { Problem, SourcePosition } from './format/problem.js';
-export type { Circuit, Operation, Register, Condition, ConditionTerm } from './circuit/circuit.js';
+export type { Circuit, Operation, Register, Condition as BitCondition, ConditionTerm } from './circuit/circuit.js';
 export { BUILTIN_GATES } from './circuit/gates.js';
 export type { NoiseProfile, QubitNoise, GateEntry, Coupling } from './noise/profile.js';
 export type { Schedule, TimedOperation, IdleWindow, Feed } from './schedule/schedule.js';

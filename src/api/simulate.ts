@@ -26,6 +26,7 @@ import { warnOffMap } from '../noise/couplingMap.js';
 import { warnEntryFallback } from '../noise/entryFallback.js';
 import { loadCircuit, type LoadedCircuit, type LoadOptions } from './loadCircuit.js';
 import { pauliStringProblem } from '../circuit/pauliString.js';
+import { explainCommandLine } from '../format/overrides.js';
 
 /** Options of one simulation run. */
 export interface SimulateOptions {
@@ -61,6 +62,10 @@ export interface RunResult {
   readonly measured_labels?: readonly string[];
   /** Record mode: the record's bit names in order (character i of a probabilities key is bit i). */
   readonly bits?: readonly string[];
+  /** Device qubit of each circuit qubit, when the run was placed with a layout. */
+  readonly layout?: readonly number[];
+  /** The uniform noise scale C, when not 1. */
+  readonly noise_scale?: number;
   readonly schedule: 'asap' | 'alap';
   readonly duration_ns: number;
   readonly probabilities: Figures['probabilities'];
@@ -168,6 +173,14 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
   warnEntryFallback(ops, circuit, profile, problems);
   warnOffMap(schedule, profile.couplings, circuit.register, problems);
   const program = buildProgram(circuit, profile, schedule, problems);
+  // Problems at positions on the command line name the --set they came from.
+  if (loaded.overrideTexts !== undefined) problems.items.splice(0, problems.items.length, ...explainCommandLine(problems.items, loaded.overrideTexts));
+  if (loaded.noiseScale !== undefined) {
+    // An `error:` the scale pushed out of reach is the scale's doing: say so.
+    problems.items.forEach((p, i) => {
+      if (p.code === 'error-unreachable') problems.items[i] = { ...p, message: `--noise-scale ${loaded.noiseScale}: ${p.message}` };
+    });
+  }
   problems.throwIfErrors();
   return { schedule, program, problems };
 }
@@ -286,6 +299,8 @@ function runResult(
     measured,
     ...(labels !== null ? { measured_labels: measured.map((q) => labels[q]!) } : {}),
     ...(bits !== null ? { bits } : {}),
+    ...(loaded.layout !== undefined ? { layout: loaded.layout } : {}),
+    ...(loaded.noiseScale !== undefined ? { noise_scale: loaded.noiseScale } : {}),
     schedule: schedule.policy,
     duration_ns: schedule.duration,
     probabilities: figures.probabilities,

@@ -28,6 +28,8 @@ export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Sty
   const measured = r.measured.map((q) => qubitName(q, reg)).join(' ');
   if (r.bits !== undefined) kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, record: ${r.bits.join(' ')}`);
   else kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, measured: ${measured}`);
+  if (r.layout !== undefined) kv('layout', r.layout.map((p, i) => `${qubitName(i, reg)}→${p}`).join(' ') + ' (circuit qubit → device qubit)');
+  if (r.noise_scale !== undefined) kv('noise', `every strength × ${r.noise_scale} (--noise-scale)`);
   kv('duration', `${formatDuration(r.duration_ns)} (${r.schedule.toUpperCase()} schedule)`);
   if (sim.circuit.operations.some((op) => op.kind === 'measure')) {
     kv('readout', sim.profile.simultaneousMeasure ? 'simultaneous: each measure step starts all its measurements together' : 'each qubit measured as soon as it is free');

@@ -31,6 +31,20 @@ export function readCircuit(
 ): Circuit | undefined {
   const root = parseYamlTree(text, file, problems);
   if (root === undefined) return undefined;
+  return readCircuitTree(root, file, problems, options);
+}
+
+/**
+ * Validates a circuit file's located YAML tree (parsed once by parseYamlTree) into the typed
+ * circuit. Studies call this again per parameter point with new `set` values: the YAML is
+ * never re-parsed, only re-typed (angles, durations and matrices depend on the params).
+ */
+export function readCircuitTree(
+  root: YNode,
+  file: string,
+  problems: ProblemList,
+  options: CircuitReadOptions = {},
+): Circuit | undefined {
   const map = asMap(root, 'a circuit file', problems);
   if (map === undefined) return undefined;
   checkKeys(map, CIRCUIT_KEYS, 'the circuit file', problems);
@@ -147,7 +161,7 @@ function readParams(
     if (!declared.has(k)) {
       const near = suggest(k, [...declared]);
       const hint = near !== undefined ? `; did you mean '${near}'?` : declared.size > 0 ? `; it has: ${[...declared].join(', ')}` : '; it declares no params';
-      problems.error(at, 'unknown-param', `--set ${k}: the circuit has no parameter '${k}'${hint}`);
+      problems.error(at, 'unknown-param', `--set ${k}=${overrides[k]}: the circuit has no parameter '${k}'${hint}`);
     }
   }
   return { ...params };

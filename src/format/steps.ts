@@ -94,7 +94,7 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList, 
           problems.error(shape.action.keyAt, 'missing-for', `${where}: idle needs 'for' with a duration, e.g. 'for: 2us'`);
           return;
         }
-        const duration = readDuration(f.value, `'for' of ${where}`, problems);
+        const duration = readDuration(f.value, `'for' of ${where}`, problems, ctx.params);
         const apps = readTargets(targetNode, { kind: 'each' }, ctx.register, where, problems);
         if (duration === undefined || apps === undefined) return;
         for (const qubits of apps) ops.push({ ...base, kind: 'idle', qubits, duration });
