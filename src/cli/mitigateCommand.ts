@@ -7,10 +7,10 @@ import { MAX_TWIRL_INSTANCES } from '../transforms/twirl.js';
 import { DECOUPLING_SEQUENCES, type DecouplingSequence } from '../transforms/decouple.js';
 import { parseDuration } from '../format/duration.js';
 import { renderMitigationReport } from './mitigateReport.js';
-import { toJson } from './json.js';
+import { toJson } from '../results/json.js';
 import { makeStyle, wantColor } from './style.js';
 import { UsageError, type CliIO } from './main.js';
-import { parseObserveOptions, parseSetOptions } from './commonOptions.js';
+import { parseObserveOptions, targetOf } from './options.js';
 import { recipeOptions } from '../mitigation/recipe.js';
 
 /** `fray mitigate FILE`: parses the options, runs the mitigation, writes the table or JSON in one piece. */
@@ -34,11 +34,9 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
     if ('error' in parsed) throw new UsageError(`--min-idle ${String(opts['minIdle'])}: ${parsed.error}`);
     minIdle = parsed.ns;
   }
-  const observe = parseObserveOptions(opts['observe'] as string[] | undefined);
-  const loaded = loadCircuit(file, {
-    set: parseSetOptions(opts['set'] as string[] | undefined),
-    ...(opts['device'] !== undefined ? { device: String(opts['device']) } : {}),
-  });
+  const observe = parseObserveOptions(opts['observe']);
+  const { file: _file, ...target } = targetOf(file, opts);
+  const loaded = loadCircuit(file, target);
   const recipe = loaded.circuit.mitigation;
   if (!fromCommandLine && recipe === undefined) {
     throw new UsageError("nothing to mitigate: give --zne SCALES, --readout METHOD, --dd SEQUENCE, --twirl [N], or several (or a 'mitigation:' block in the circuit file)");

@@ -1,16 +1,16 @@
 import { planFile, simulate } from '../api/simulate.js';
-import { formatPlan, planToJson } from '../plan/formatPlan.js';
+import { formatPlan, formatRecordPlan, planToJson, recordPlanToJson } from '../plan/formatPlan.js';
 import { parseByteSize } from '../engine/memory.js';
 import { renderRunReport } from './runReport.js';
-import { toJson } from './json.js';
+import { toJson } from '../results/json.js';
 import { makeStyle, wantColor } from './style.js';
 import { UsageError, type CliIO } from './main.js';
-import { parseObserveOptions, parseSetOptions } from './commonOptions.js';
+import { parseObserveOptions, parseSetOptions } from './options.js';
 
 /** `fray run FILE`: parses the options, runs the simulation, writes the report or JSON in one piece. */
 export async function runCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
-  const set = parseSetOptions(opts['set'] as string[] | undefined);
-  const observe = parseObserveOptions(opts['observe'] as string[] | undefined);
+  const set = parseSetOptions(opts['set']);
+  const observe = parseObserveOptions(opts['observe']);
   let maxMemoryBytes: number | undefined;
   if (opts['maxMemory'] !== undefined) {
     maxMemoryBytes = parseByteSize(String(opts['maxMemory']));
@@ -24,10 +24,17 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
     ...(opts['seed'] !== undefined ? { seed: opts['seed'] as number } : {}),
     ...(maxMemoryBytes !== undefined ? { maxMemoryBytes } : {}),
     ...(opts['threads'] !== undefined ? { threads: opts['threads'] as number } : {}),
+    ...(opts['noiseScale'] !== undefined ? { noiseScale: opts['noiseScale'] as number } : {}),
+    ...(opts['layout'] !== undefined ? { layout: opts['layout'] as number[] } : {}),
     fuse: opts['fuse'] !== false,
   };
   if (opts['plan'] === true) {
     const planned = planFile(file, options);
+    if (planned.segments !== undefined) {
+      const bits = planned.bits ?? [];
+      io.stdout.write(opts['json'] ? toJson(recordPlanToJson(planned.segments, bits)) + '\n' : formatRecordPlan(planned.segments, bits));
+      return;
+    }
     const origins = planned.program.origins;
     io.stdout.write(opts['json'] ? toJson(planToJson(planned.plan, origins)) + '\n' : formatPlan(planned.plan, origins));
     return;

@@ -101,6 +101,12 @@ interface RunFigures {
 
 /** Runs the circuit as it is and as mitigated (see the module comment). Throws InputError on bad input. */
 export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): MitigationResult {
+  if (options.readout !== undefined && loaded.circuit.bits !== null) {
+    // record mode: readout error acts on the record's bits, not on the final state's outcomes
+    const problems = new ProblemList();
+    problems.error(loaded.circuit.stepsAt, 'readout-record-mode', 'readout correction works on circuits without a classical record (no measure … into:); this circuit keeps a record');
+    problems.throwIfErrors();
+  }
   const runOptions: SimulateOptions = { ...(options.run ?? {}), observe: options.observe ?? [] };
   const base = simulateLoaded(loaded, runOptions);
   const warnings = [...base.result.warnings];

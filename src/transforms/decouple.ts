@@ -18,11 +18,11 @@
  */
 import type { Circuit, GateOperation, IdleOperation, Operation } from '../circuit/circuit.js';
 import { BUILTIN_GATES } from '../circuit/gates.js';
-import { operationDuration } from '../api/simulate.js';
+import { scheduleCircuit } from '../api/simulate.js';
 import type { NoiseProfile } from '../noise/profile.js';
 import { deviceOperations } from '../schedule/deviceOperations.js';
 import type { DecouplingSequence } from './sequences.js';
-import { scheduleOperations, type IdleWindow, type Schedule } from '../schedule/schedule.js';
+import type { IdleWindow, Schedule } from '../schedule/schedule.js';
 
 export { DECOUPLING_SEQUENCES, type DecouplingSequence } from './sequences.js';
 
@@ -67,9 +67,8 @@ const SPACING: Record<DecouplingSequence, readonly number[]> = { xx: [1 / 4, 1 /
 /** Fills the idle windows of `circuit` (scheduled under `profile`) with a decoupling sequence (see the module comment). */
 export function insertDecoupling(circuit: Circuit, profile: NoiseProfile, options: DecouplingOptions): DecouplingResult {
   if (!(options.minIdle >= 0)) throw new RangeError(`insertDecoupling: minIdle must be ≥ 0 ns, not ${options.minIdle}`);
-  const n = circuit.register.n;
   const only = options.qubits === undefined ? null : new Set(options.qubits);
-  const base = schedule(circuit.operations, n, profile);
+  const base = schedule(circuit.operations, circuit, profile);
   const inserted: DecouplingInsertion[] = [];
   const skipped: DecouplingSkip[] = [];
   let ops: readonly Operation[] = circuit.operations;
@@ -83,8 +82,8 @@ export function insertDecoupling(circuit: Circuit, profile: NoiseProfile, option
       skipped.push({ ...w, reason: `the ${names.length} pulses take ${length - free} ns, more than the window` });
       continue;
     }
-    const candidate = fill(ops, w, names, SPACING[options.sequence].map((f) => Math.max(free, 0) * f), n, profile);
-    if (candidate === undefined || !keepsTimes(base, schedule(candidate, n, profile), candidate)) {
+    const candidate = fill(ops, w, names, SPACING[options.sequence].map((f) => Math.max(free, 0) * f), circuit, profile);
+    if (candidate === undefined || !keepsTimes(base, schedule(candidate, circuit, profile), candidate)) {
       skipped.push({ ...w, reason: 'filling it would move other operations (a barrier or an aligned measurement inside the window)' });
       continue;
     }
@@ -94,8 +93,9 @@ export function insertDecoupling(circuit: Circuit, profile: NoiseProfile, option
   return { circuit: { ...circuit, operations: ops }, inserted, skipped };
 }
 
-function schedule(ops: readonly Operation[], n: number, profile: NoiseProfile): Schedule {
-  return scheduleOperations(deviceOperations(ops, profile), n, operationDuration(profile), profile.schedule, { simultaneousMeasure: profile.simultaneousMeasure });
+/** The schedule of a list of operations as `fray run` would make it (scheduleCircuit: durations, policy, readout timing, latency). */
+function schedule(ops: readonly Operation[], circuit: Circuit, profile: NoiseProfile): Schedule {
+  return scheduleCircuit({ ...circuit, operations: ops }, profile);
 }
 
 /** A built-in π pulse on `qubit`, reported as part of the step `near` (the operation it follows). */
@@ -109,8 +109,8 @@ function pulse(name: 'x' | 'y', qubit: number, near: Operation): GateOperation {
  * user's `idle` steps on the qubit inside the window are dropped. Undefined when the window's
  * start cannot be tied to an operation.
  */
-function fill(ops: readonly Operation[], w: IdleWindow, pulses: readonly ('x' | 'y')[], waits: readonly number[], n: number, profile: NoiseProfile): Operation[] | undefined {
-  const s = schedule(ops, n, profile);
+function fill(ops: readonly Operation[], w: IdleWindow, pulses: readonly ('x' | 'y')[], waits: readonly number[], circuit: Circuit, profile: NoiseProfile): Operation[] | undefined {
+  const s = schedule(ops, circuit, profile);
   // device items belong to the circuit operation they expand; walk both lists together
   const owner: number[] = [];
   ops.forEach((op, i) => {
