@@ -85,7 +85,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
         '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..2:9 --plot s.svg      a figure against a knob\n' +
         "  fray threshold circuits/ghz5.yaml --target 'state>=0.9' --vary gates.cx.error=0.0001..0.05\n" +
         '  fray budget circuits/ghz5.yaml                 where the infidelity comes from\n' +
-        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,3,5 --readout inverse\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,3,5 --fold --readout inverse\n' +
         '\nExit status: 0 success, 2 input error (FILE:LINE:COL: message), 3 a requirement not met\n' +
         '(compare --require; threshold: the target met nowhere), 1 internal error.',
     );
@@ -280,9 +280,9 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .command('mitigate')
     .description('apply error mitigation (dynamical decoupling, Pauli twirling, zero-noise extrapolation by folding, readout correction) and compare with the ideal answer')
     .argument('<file>', 'circuit file (YAML)')
-    .option('--zne <scales>', 'extrapolate to zero noise from these folding scales, e.g. 1,3,5 (each ≥ 1)', parseScales)
+    .option('--zne <scales>', 'extrapolate to zero noise from these noise scales, e.g. 1,2,3 (each ≥ 1; the uniform noise scale unless --fold)', parseScales)
     .option('--fit <model>', `extrapolation: ${FIT_KINDS.join(', ')} (default richardson)`)
-    .option('--fold <order>', 'which gates fold once more for fractional scales: end (default) or random')
+    .option('--fold [order]', 'amplify --zne by unitary folding instead; fractional scales fold the last gates once more (end, default) or random ones')
     .option('--twirl [instances]', 'Pauli-twirl the 2-qubit Clifford gates: exactly, or averaged over this many seeded random instances', parseInstances)
     .option('--seed <s>', 'seed of --fold random and of --twirl instances (default 1)', parseSeed)
     .option('--readout <method>', `correct the readout: ${READOUT_METHODS.join(', ')}`)
@@ -295,13 +295,15 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .addHelpText(
       'after',
       '\nExamples:\n' +
-        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,3,5 --fit richardson --observe ZZII\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,2,3 --fit richardson --observe ZZII\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,3,5 --fold            as a device would\n' +
         '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,1.5,2 --fold random --seed 4 --fit linear\n' +
         '  fray mitigate circuits/mitigation/ghz-line.yaml --readout bounded --json\n' +
-        '  fray mitigate circuits/mitigation/ghz-line.yaml --dd xy4 --min-idle 200ns --zne 1,3,5\n' +
-        '  fray mitigate circuits/mitigation/ghz-line.yaml --twirl 50 --seed 2 --zne 1,3,5 --fit exponential\n' +
-        '\nFolding turns each gate G into G (G†G)^k, G† taking G\'s profile entry (duration and noise); the\n' +
-        'ideal run is unchanged. See docs/mitigation.md for the fits and the readout correction.',
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --dd xy4 --min-idle 200ns --zne 1,3,5 --fold\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --twirl 50 --seed 2 --zne 1,3,5 --fold --fit exponential\n' +
+        '\nThe noise scale multiplies every noise strength (as --noise-scale does). Folding turns each gate G into\n' +
+        'G (G†G)^k, G† taking G\'s profile entry (duration and noise); the ideal run is unchanged.\n' +
+        'See docs/mitigation.md for the fits and the readout correction.',
     ), 'multiply every noise strength by C ≥ 0 before mitigating (the device as run; folding scales on top)')
     .action(async (file: string, opts: Record<string, unknown>) => {
       await mitigateCommand(file, opts, io);

@@ -22,8 +22,9 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
   const fromCommandLine = zne !== undefined || readout !== undefined || dd !== undefined || twirl !== undefined;
   const fit = (opts['fit'] as string | undefined) ?? 'richardson';
   if (!FIT_KINDS.includes(fit as FitKind)) throw new UsageError(`--fit ${fit}: expected one of ${FIT_KINDS.join(', ')}`);
-  const order = (opts['fold'] as string | undefined) ?? 'end';
-  if (order !== 'end' && order !== 'random') throw new UsageError(`--fold ${order}: expected end or random`);
+  const fold = opts['fold'] as true | string | undefined;
+  const order = fold === undefined || fold === true ? 'end' : fold;
+  if (order !== 'end' && order !== 'random') throw new UsageError(`--fold ${order}: expected end or random (or --fold alone: from the end)`);
   if (zne === undefined && (opts['fit'] !== undefined || opts['fold'] !== undefined)) throw new UsageError('--fit and --fold shape a zero-noise extrapolation: give --zne SCALES too');
   if (readout !== undefined && !READOUT_METHODS.includes(readout as ReadoutMethod)) throw new UsageError(`--readout ${readout}: expected one of ${READOUT_METHODS.join(', ')}`);
   if (dd !== undefined && !DECOUPLING_SEQUENCES.includes(dd as DecouplingSequence)) throw new UsageError(`--dd ${dd}: expected one of ${DECOUPLING_SEQUENCES.join(', ')}`);
@@ -44,7 +45,9 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
   const seed = opts['seed'] as number | undefined;
   const chosen: MitigateOptions = fromCommandLine
     ? {
-        ...(zne !== undefined ? { zne: { scales: zne, fit: fit as FitKind, order: order as FoldOrder, ...(seed !== undefined ? { seed } : {}) } } : {}),
+        ...(zne !== undefined
+          ? { zne: { scales: zne, fit: fit as FitKind, ...(fold !== undefined ? { amplify: 'fold' as const, order: order as FoldOrder, ...(seed !== undefined ? { seed } : {}) } : { amplify: 'scale' as const }) } }
+          : {}),
         ...(readout !== undefined ? { readout: readout as ReadoutMethod } : {}),
         ...(dd !== undefined ? { dd: { sequence: dd as DecouplingSequence, minIdle } } : {}),
         ...(twirl !== undefined ? { twirl: twirl === true ? {} : { instances: twirl, ...(seed !== undefined ? { seed } : {}) } } : {}),

@@ -30,7 +30,8 @@ export function renderMitigationReport(r: MitigationResult, style: Style): strin
   }
   if (r.fit !== undefined && names.length > 0) {
     const scales = r.observables[names[0]!]!.points.map((p) => p.scale);
-    lines.push('', style.bold(`Zero-noise extrapolation (unitary folding${how !== '' ? ` of the ${how} circuit` : ''}, ${r.fit} fit; ⟨P⟩ with qubit 0 leftmost)`));
+    const amplifier = r.amplify === 'fold' ? 'unitary folding' : 'noise scale';
+    lines.push('', style.bold(`Zero-noise extrapolation (${amplifier}${how !== '' ? ` of the ${how} circuit` : ''}, ${r.fit} fit; ⟨P⟩ with qubit 0 leftmost)`));
     const pw = Math.max(10, ...names.map((k) => k.length));
     const head = ['ideal', 'noisy', 'mitigated', 'err before', 'err after', 'std err', ...scales.map((s) => `λ=${fmtScale(s)}`)];
     lines.push(`  ${style.dim('observable'.padEnd(pw))}${head.map((h) => style.dim(h.padStart(11))).join('')}`);
@@ -41,7 +42,8 @@ export function renderMitigationReport(r: MitigationResult, style: Style): strin
       for (const p of o.points) cells.push(fmt(p.value));
       lines.push(`  ${k.padEnd(pw)}${cells.join('')}`);
     }
-    lines.push(`  ${style.dim('λ: the scale folding achieved (1 + 2·folds/gates); std err: least squares, — where the fit interpolates')}`);
+    const lambda = r.amplify === 'fold' ? 'the scale folding achieved (1 + 2·folds/gates)' : 'every noise strength × λ';
+    lines.push(`  ${style.dim(`λ: ${lambda}; std err: least squares, — where the fit interpolates`)}`);
   }
   if (r.readout !== undefined) {
     const ro = r.readout;

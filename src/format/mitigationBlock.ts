@@ -23,8 +23,8 @@ export const MITIGATION_ZNE_KEYS = ['scales', 'fit', 'amplify', 'fold', 'seed'] 
 export const MITIGATION_DD_KEYS = ['sequence', 'min_idle'] as const;
 export const MITIGATION_TWIRL_KEYS = ['instances', 'seed'] as const;
 
-/** How ZNE amplifies the noise. */
-export const AMPLIFY_KINDS = ['fold'] as const;
+/** How ZNE amplifies the noise: the uniform noise scale (default) or unitary folding. */
+export const AMPLIFY_KINDS = ['scale', 'fold'] as const;
 
 
 /** The recipe as read, with the block's position (for problems about the recipe as a whole). */
@@ -83,7 +83,7 @@ export function readMitigation(node: YNode, problems: ProblemList): MitigationSp
       const fe = entryOf(m, 'fit');
       const fit = fe === undefined ? 'richardson' : readChoice(fe.value, "'mitigation.zne.fit'", FIT_KINDS, problems);
       const ae = entryOf(m, 'amplify');
-      const amplify = ae === undefined ? 'fold' : readChoice(ae.value, "'mitigation.zne.amplify'", AMPLIFY_KINDS, problems);
+      const amplify = ae === undefined ? 'scale' : readChoice(ae.value, "'mitigation.zne.amplify'", AMPLIFY_KINDS, problems);
       const oe = entryOf(m, 'fold');
       const order = oe === undefined ? undefined : readChoice(oe.value, "'mitigation.zne.fold'", ['end', 'random'] as const, problems);
       const seed = readSeed(m, "'mitigation.zne.seed'", problems);

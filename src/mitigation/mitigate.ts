@@ -2,8 +2,9 @@
  * One mitigation run on a loaded circuit, in this order: dynamical decoupling inserted into
  * the idle windows (src/transforms/decouple.ts), Pauli twirling of the 2-qubit Clifford gates
  * (exact, or averaged over seeded instances: src/transforms/twirl.ts), zero-noise extrapolation
- * of the requested Pauli observables by unitary folding (src/transforms/fold.ts, fits in
- * ./extrapolate.ts), and readout correction of the measured distribution
+ * of the requested Pauli observables with the noise amplified by the uniform noise scale
+ * (src/noise/scale.ts) or by unitary folding (src/transforms/fold.ts), fits in
+ * ./extrapolate.ts, and readout correction of the measured distribution
  * (./readoutCorrection.ts). Each figure is compared with the ideal answer, which a simulator
  * knows exactly, and with the run as it is. Every noisy run goes through the same
  * `simulateLoaded` as `fray run`; the transforms change the circuit, never the YAML.
@@ -13,6 +14,8 @@ import type { LoadedCircuit } from '../api/loadCircuit.js';
 import type { Circuit } from '../circuit/circuit.js';
 import { ProblemList } from '../format/problem.js';
 import { foldCircuit, type FoldOrder } from '../transforms/fold.js';
+import { scaleNoise } from '../noise/scale.js';
+import type { NoiseProfile } from '../noise/profile.js';
 import { insertDecoupling, type DecouplingInsertion, type DecouplingOptions, type DecouplingSequence, type DecouplingSkip } from '../transforms/decouple.js';
 import { twirlFrames, twirlSampler, type TwirlMode } from '../transforms/twirl.js';
 import { extrapolate, fitProblem, type FitKind, type ScalePoint } from './extrapolate.js';
@@ -22,10 +25,14 @@ import { idealDiagonal } from '../results/idealFigures.js';
 import { classicalFidelity, totalVariationDistance } from '../results/fidelity.js';
 import { LISTED_OUTCOME_THRESHOLD } from '../results/report.js';
 
-/** Zero-noise extrapolation by folding: the requested scales (λ ≥ 1, distinct after folding), the fit, and which gates fold first. */
+/** How ZNE amplifies the noise: by the uniform noise scale (src/noise/scale.ts; exact in a simulator) or by unitary folding (what a device can run). */
+export type Amplification = 'scale' | 'fold';
+
+/** Zero-noise extrapolation: the requested scales (λ ≥ 1; distinct after folding), the fit, the amplification (default 'scale'), and for folding which gates fold first. */
 export interface ZneRecipe {
   readonly scales: readonly number[];
   readonly fit: FitKind;
+  readonly amplify?: Amplification;
   readonly order?: FoldOrder;
   readonly seed?: number;
 }
@@ -87,7 +94,7 @@ export interface MitigationResult {
   /** Twirling: exact, or the number of averaged instances and their seed; how many gate applications of the unfolded circuit were twirled. */
   readonly twirl?: { readonly mode: 'exact' | 'sampled'; readonly instances?: number; readonly seed?: number; readonly gates: number };
   readonly fit?: FitKind;
-  readonly amplify?: 'fold';
+  readonly amplify?: Amplification;
   readonly observables: Record<string, ObservableMitigation>;
   readonly readout?: ReadoutMitigation;
   readonly warnings: readonly string[];
@@ -115,7 +122,7 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
   const dd = options.dd === undefined ? undefined : insertDecoupling(loaded.circuit, loaded.profile, options.dd);
   const prepared = dd === undefined ? loaded.circuit : dd.circuit;
   const tw = options.twirl;
-  const figuresOf = (circuit: Circuit): RunFigures => {
+  const figuresOf = (circuit: Circuit, profile: NoiseProfile = loaded.profile): RunFigures => {
     const modes: TwirlMode[] = [];
     // no twirl runs once without frames (`framed` below stays undefined)
     if (tw === undefined || tw.instances === undefined) modes.push({ kind: 'exact' });
@@ -126,9 +133,9 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
     const values: Record<string, number> = {};
     const trueOutcomes = new Float64Array(1 << measured.length);
     for (const mode of modes) {
-      const framed = tw === undefined ? undefined : twirlFrames(circuit, loaded.profile, mode);
+      const framed = tw === undefined ? undefined : twirlFrames(circuit, profile, mode);
       for (const w of framed?.warnings ?? []) if (!warnings.includes(w)) warnings.push(w);
-      const sim = simulateLoaded({ ...loaded, circuit }, { ...runOptions, ...(framed !== undefined ? { frames: framed.frames } : {}) });
+      const sim = simulateLoaded({ ...loaded, circuit, profile }, { ...runOptions, ...(framed !== undefined ? { frames: framed.frames } : {}) });
       for (const [p, v] of Object.entries(sim.result.observables ?? {})) values[p] = (values[p] ?? 0) + v.noisy / modes.length;
       const p = marginal(diagonalOf(sim.rho), n, measured);
       for (let k = 0; k < p.length; k++) trueOutcomes[k] += p[k]! / modes.length;
@@ -145,11 +152,30 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
   const baseObs = Object.entries(base.result.observables ?? {});
   if (zne !== undefined) {
     const runs: { scale: number; figures: RunFigures }[] = [];
-    for (const requested of zne.scales) {
-      const folded = foldCircuit(prepared, { scale: requested, ...(zne.order !== undefined ? { order: zne.order } : {}), ...(zne.seed !== undefined ? { seed: zne.seed } : {}) });
-      runs.push({ scale: folded.scale, figures: folded.scale === 1 ? first : figuresOf(folded.circuit) });
+    if ((zne.amplify ?? 'scale') === 'scale') {
+      for (const c of zne.scales) {
+        if (c === 1) {
+          runs.push({ scale: 1, figures: first });
+          continue;
+        }
+        const problems = new ProblemList();
+        const scaled = scaleNoise(prepared, loaded.profile, c, problems);
+        // the scale's range errors name `--noise-scale C`; here the scale is one of --zne's
+        problems.items.forEach((p, i) => (problems.items[i] = { ...p, message: p.message.replace(/^--noise-scale /, '--zne scale ') }));
+        problems.throwIfErrors();
+        for (const w of problems.warnings) {
+          const text = `${w.file}:${w.line}:${w.col}: ${w.message}`;
+          if (!warnings.includes(text)) warnings.push(text);
+        }
+        runs.push({ scale: c, figures: figuresOf(scaled.circuit, scaled.profile) });
+      }
+    } else {
+      for (const requested of zne.scales) {
+        const folded = foldCircuit(prepared, { scale: requested, ...(zne.order !== undefined ? { order: zne.order } : {}), ...(zne.seed !== undefined ? { seed: zne.seed } : {}) });
+        runs.push({ scale: folded.scale, figures: folded.scale === 1 ? first : figuresOf(folded.circuit) });
+      }
+      refuseUnfittable(loaded, prepared, runs.map((r) => r.scale), zne);
     }
-    refuseUnfittable(loaded, prepared, runs.map((r) => r.scale), zne);
     const problems = new ProblemList();
     for (const [p, v] of baseObs) {
       const points = runs.map((r) => ({ scale: r.scale, value: r.figures.values[p]! }));
@@ -180,7 +206,7 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
     ...(tw !== undefined
       ? { twirl: tw.instances === undefined ? { mode: 'exact' as const, gates: twirled } : { mode: 'sampled' as const, instances: tw.instances, seed: tw.seed ?? DEFAULT_TWIRL_SEED, gates: twirled } }
       : {}),
-    ...(zne !== undefined ? { fit: zne.fit, amplify: 'fold' as const } : {}),
+    ...(zne !== undefined ? { fit: zne.fit, amplify: zne.amplify ?? 'scale' } : {}),
     observables,
     ...(options.readout !== undefined
       ? {

@@ -7,7 +7,7 @@ export function recipeOptions(spec: MitigationSpec): MitigateOptions {
     ...(spec.dd !== undefined ? { dd: spec.dd } : {}),
     ...(spec.twirl !== undefined ? { twirl: spec.twirl } : {}),
     ...(spec.zne !== undefined
-      ? { zne: { scales: spec.zne.scales, fit: spec.zne.fit, ...(spec.zne.order !== undefined ? { order: spec.zne.order } : {}), ...(spec.zne.seed !== undefined ? { seed: spec.zne.seed } : {}) } }
+      ? { zne: { scales: spec.zne.scales, fit: spec.zne.fit, amplify: spec.zne.amplify, ...(spec.zne.order !== undefined ? { order: spec.zne.order } : {}), ...(spec.zne.seed !== undefined ? { seed: spec.zne.seed } : {}) } }
       : {}),
     ...(spec.readout !== undefined ? { readout: spec.readout } : {}),
   };

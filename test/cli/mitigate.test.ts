@@ -5,7 +5,7 @@ const DEMO = 'circuits/mitigation/ghz-line.yaml';
 
 describe('fray mitigate', () => {
   it('--json has the issue\'s shape: observables with ideal, noisy, mitigated, stderr, points; readout with both distances', async () => {
-    const { code, out, err } = await fray('mitigate', DEMO, '--zne', '1,3,5', '--fit', 'linear', '--readout', 'bounded', '--observe', 'ZIIZ', '--json');
+    const { code, out, err } = await fray('mitigate', DEMO, '--zne', '1,3,5', '--fold', '--fit', 'linear', '--readout', 'bounded', '--observe', 'ZIIZ', '--json');
     expect(err).toBe('');
     expect(code).toBe(0);
     const j = JSON.parse(out);
@@ -23,7 +23,7 @@ describe('fray mitigate', () => {
   it('the table lists each observable with its errors and the value at each scale', async () => {
     const { code, out } = await fray('mitigate', DEMO, '--zne', '1,2,3', '--no-color');
     expect(code).toBe(0);
-    expect(out).toMatch(/richardson fit/);
+    expect(out).toMatch(/noise scale, richardson fit/);
     expect(out).toMatch(/observable\s+ideal\s+noisy\s+mitigated\s+err before\s+err after\s+std err\s+λ=1\s+λ=2\s+λ=3/);
     expect(out).toMatch(/^ {2}XXXX\s+1\.000000/m);
   });
@@ -53,7 +53,7 @@ describe('fray mitigate', () => {
 
   it('scales that fold to the same circuit are a located input error', async () => {
     const file = tempFile('two.yaml', 'qubits: 1\nobserve: [Z]\nsteps:\n  - x: 0\n  - x: 0\n');
-    const { code, err } = await fray('mitigate', file, '--zne', '1,1.2,3');
+    const { code, err } = await fray('mitigate', file, '--zne', '1,1.2,3', '--fold');
     expect(code).toBe(2);
     expect(err.split('\n')[0]).toMatch(LOCATED); // at the steps: key, line 3
     expect(err).toMatch(/two\.yaml:3:1: --zne scales 1 and 1\.2 both fold to 1 with 2 gate applications; choose scales at least 1\.00 apart/);

@@ -20,6 +20,7 @@ const cases: { name: string; block: string; says: string }[] = [
   { name: 'no scales', block: '  zne: { fit: linear }\n', says: "c.yaml:6:8: 'mitigation.zne' needs 'scales:' (a list of noise scales such as [1, 3, 5])" },
   { name: 'misspelled sequence', block: '  dd: { sequence: xy8 }\n', says: "c.yaml:6:19: 'mitigation.dd.sequence' must be one of 'xx', 'xy4', not 'xy8'; did you mean 'xy4'?" },
   { name: 'bare min_idle', block: '  dd: { sequence: xx, min_idle: 200 }\n', says: "c.yaml:6:33: 'mitigation.dd.min_idle': duration '200' has no unit; write it with ns, us (µs), ms or s, e.g. '200ns'" },
+  { name: 'unknown amplification', block: '  zne: { scales: [1, 3], amplify: fould }\n', says: "c.yaml:6:35: 'mitigation.zne.amplify' must be one of 'scale', 'fold', not 'fould'; did you mean 'fold'?" },
   { name: 'readout method', block: '  readout: exact\n', says: "c.yaml:6:12: 'mitigation.readout' must be one of 'inverse', 'bounded', not 'exact'" },
   { name: 'twirl instances', block: '  twirl: { instances: 0 }\n', says: "c.yaml:6:23: 'mitigation.twirl.instances' must be at least 1, not 0" },
 ];
@@ -37,7 +38,7 @@ describe('mitigation: block errors', () => {
     expect(spec).toEqual({
       dd: { sequence: 'xy4', minIdle: 200 },
       twirl: { instances: 8, seed: 3 },
-      zne: { scales: [1, 2, 3], fit: 'linear', amplify: 'fold', order: 'random', seed: 4 },
+      zne: { scales: [1, 2, 3], fit: 'linear', amplify: 'scale', order: 'random', seed: 4 },
       readout: 'bounded',
     });
   });

@@ -25,7 +25,7 @@ describe('mitigate', () => {
   const r = (lambda: number) => -((1 - P) ** (M * lambda));
 
   it('ZNE by folding: every point is the closed form, the exponential fit returns the ideal value to 1e-12', () => {
-    const out = mitigate(loaded, { zne: { scales: [1, 3, 5], fit: 'exponential' } });
+    const out = mitigate(loaded, { zne: { scales: [1, 3, 5], fit: 'exponential', amplify: 'fold' } });
     const z = out.observables['Z']!;
     expect(z.ideal).toBeCloseTo(-1, 15);
     for (const pt of z.points) expect(Math.abs(pt.value - r(pt.scale))).toBeLessThan(EXACT);
@@ -33,7 +33,7 @@ describe('mitigate', () => {
   });
 
   it("linear extrapolation's bias through λ = 1, 3 is the closed form −1 − (3r(1) − r(3))/2 (derived)", () => {
-    const out = mitigate(loaded, { zne: { scales: [1, 3], fit: 'linear' } });
+    const out = mitigate(loaded, { zne: { scales: [1, 3], fit: 'linear', amplify: 'fold' } });
     const z = out.observables['Z']!;
     const bias = z.mitigated - z.ideal;
     expect(Math.abs(bias - ((3 * r(1) - r(3)) / 2 - -1))).toBeLessThan(EXACT);
@@ -41,7 +41,21 @@ describe('mitigate', () => {
   });
 
   it('scales that fold to the same circuit are an input error, not a fit through a repeated point', () => {
-    expect(() => mitigate(loaded, { zne: { scales: [1, 1.1], fit: 'linear' } })).toThrow(InputError);
+    expect(() => mitigate(loaded, { zne: { scales: [1, 1.1], fit: 'linear', amplify: 'fold' } })).toThrow(InputError);
+  });
+
+  it('ZNE by noise scale: ⟨Z⟩(C) = −(1 − C·p)^m is a polynomial of degree m in C, so Richardson through m + 1 scales returns the ideal value to 1e-12 (derived from the depolarizing definition)', () => {
+    const out = mitigate(loaded, { zne: { scales: [1, 2, 3, 4, 5, 6], fit: 'richardson' } });
+    const z = out.observables['Z']!;
+    expect(out.amplify).toBe('scale');
+    for (const pt of z.points) expect(Math.abs(pt.value - -((1 - pt.scale * P) ** M))).toBeLessThan(EXACT);
+    expect(Math.abs(z.mitigated - -1)).toBeLessThan(EXACT);
+  });
+
+  it("linear extrapolation by noise scale through C = 1, 2 has the closed-form bias 2y(1) − y(2) + 1 (derived)", () => {
+    const y = (c: number) => -((1 - c * P) ** M);
+    const z = mitigate(loaded, { zne: { scales: [1, 2], fit: 'linear' } }).observables['Z']!;
+    expect(Math.abs(z.mitigated - z.ideal - (2 * y(1) - y(2) + 1))).toBeLessThan(EXACT);
   });
 
   it('readout correction with the exact confusion returns the pre-readout distribution to 1e-12 (derived)', () => {
