@@ -25,6 +25,8 @@ export interface Circuit {
   readonly compositeGates: ReadonlySet<string>;
   /** Pauli strings to report, qubit 0 leftmost. */
   readonly observe: readonly Loc<string>[];
+  /** The `expect:` conditions as written (METRIC OP NUMBER, optionally `mitigated.`; parsed by src/mitigation/check.ts). */
+  readonly expect?: readonly Loc<string>[];
   /** The `mitigation:` recipe (what `fray mitigate FILE` applies when no method is given on the command line). */
   readonly mitigation?: MitigationSpec;
   /** The `device:` path as written (relative to the circuit file), if any. */

@@ -86,8 +86,9 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
         "  fray threshold circuits/ghz5.yaml --target 'state>=0.9' --vary gates.cx.error=0.0001..0.05\n" +
         '  fray budget circuits/ghz5.yaml                 where the infidelity comes from\n' +
         '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,3,5 --fold --readout inverse\n' +
+        '  fray check circuits/mitigation/ghz-line.yaml --junit check.xml   expectations for CI\n' +
         '\nExit status: 0 success, 2 input error (FILE:LINE:COL: message), 3 a requirement not met\n' +
-        '(compare --require; threshold: the target met nowhere), 1 internal error.',
+        '(compare --require, check; threshold: the target met nowhere), 1 internal error.',
     );
 
   const run = program
@@ -309,6 +310,34 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
       await mitigateCommand(file, opts, io);
     });
   mitigateCmd.exitOverride();
+
+  const checkCmd = addTargetOptions(
+    program
+      .command('check')
+      .description("evaluate every file's expect: conditions (and a baseline of all figures) for CI: exit 0 all hold, 3 any fails")
+      .argument('<files...>', 'circuit files (YAML) with expect: blocks')
+      .option('--json', 'print one JSON object instead of the table')
+      .option('--junit <file>', 'also write JUnit XML (one test case per expectation) to this file')
+      .option('--baseline <file>', 'also fail every figure that moved from this baseline by more than --tolerance')
+      .option('--write-baseline <file>', 'write every figure of this run as a baseline')
+      .option('--tolerance <x>', 'largest absolute move from the baseline that passes (default 1e-9)')
+      .option('--no-color', 'plain text even on a terminal (NO_COLOR is respected too)')
+      .addHelpText(
+        'after',
+        '\nExamples:\n' +
+          '  fray check circuits/mitigation/ghz-line.yaml\n' +
+          '  fray check circuits/mitigation/*.yaml --junit check.xml --baseline base.json --tolerance 1e-6\n' +
+          '  fray check circuits/mitigation/ghz-line.yaml --write-baseline base.json\n' +
+          "\nConditions: METRIC OP NUMBER as for compare --require, and mitigated.observable:P, mitigated.tvd,\n" +
+          "mitigated.classical after the file's mitigation: recipe. A file with no expect: is reported, not passed.\n" +
+          'Exit status: 0 all hold, 3 any fails (or a file checks nothing), 2 input error.',
+      ),
+    'multiply every noise strength by C ≥ 0 in every file checked',
+  ).action(async (files: string[], opts: Record<string, unknown>) => {
+    const { checkCommand } = await import('./checkCommand.js');
+    exitWith(await checkCommand(files, opts, io));
+  });
+  checkCmd.exitOverride();
   return program;
 }
 

@@ -15,7 +15,7 @@ import { readSteps } from './steps.js';
 import { describe, parseYamlTree, type YNode } from './yamlTree.js';
 
 /** Top-level keys of a circuit file. */
-export const CIRCUIT_KEYS = ['name', 'qubits', 'device', 'noise', 'params', 'gates', 'channels', 'observe', 'bits', 'mitigation', 'steps'] as const;
+export const CIRCUIT_KEYS = ['name', 'qubits', 'device', 'noise', 'params', 'gates', 'channels', 'observe', 'bits', 'mitigation', 'expect', 'steps'] as const;
 
 /** Options that change how a circuit file reads. */
 export interface CircuitReadOptions {
@@ -93,6 +93,17 @@ export function readCircuitTree(
     }
   }
 
+  const expect: Loc<string>[] = [];
+  const ee = entryOf(map, 'expect');
+  if (ee !== undefined) {
+    if (ee.value.kind !== 'seq') problems.error(ee.value.at, 'expected-list', `'expect' must be a list of conditions such as 'state >= 0.9', not ${describe(ee.value)}`);
+    else {
+      for (const item of ee.value.items) {
+        const s = readString(item, "an 'expect' entry (a condition such as 'state >= 0.9')", problems);
+        if (s !== undefined) expect.push({ value: s, at: item.at });
+      }
+    }
+  }
   const me = entryOf(map, 'mitigation');
   const mitigation = me === undefined ? undefined : readMitigation(me.value, problems);
 
@@ -118,6 +129,7 @@ export function readCircuitTree(
     compositeGates,
     observe,
     ...(mitigation !== undefined ? { mitigation } : {}),
+    ...(ee !== undefined ? { expect } : {}),
     device,
     inlineNoise,
     operations,

@@ -97,6 +97,8 @@ export interface MitigationResult {
   readonly amplify?: Amplification;
   readonly observables: Record<string, ObservableMitigation>;
   readonly readout?: ReadoutMitigation;
+  /** The measured distribution's distance to the ideal one: the circuit as it is, and as mitigated (readout corrected when asked). */
+  readonly distribution: { readonly tvd_before: number; readonly tvd_after: number; readonly classical_before: number; readonly classical_after: number };
   readonly warnings: readonly string[];
 }
 
@@ -200,6 +202,9 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
   const twirled = tw === undefined ? 0 : twirlFrames(prepared, loaded.profile, { kind: 'exact' }).twirled;
   const confusion = measured.map((q) => loaded.profile.qubits[q]!.readout);
   const pIdeal = marginal(idealDiagonal(base.ideal), n, measured);
+  const pBefore = applyReadout(marginal(diagonalOf(base.rho), n, measured), confusion);
+  const pRead = applyReadout(first.trueOutcomes, confusion);
+  const pAfter = options.readout === undefined ? pRead : correctReadout(pRead, confusion, options.readout);
   return {
     file: loaded.circuit.file,
     ...(dd !== undefined ? { decoupling: { sequence: options.dd!.sequence, min_idle_ns: options.dd!.minIdle, inserted: dd.inserted, skipped: dd.skipped } } : {}),
@@ -209,17 +214,14 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
     ...(zne !== undefined ? { fit: zne.fit, amplify: zne.amplify ?? 'scale' } : {}),
     observables,
     ...(options.readout !== undefined
-      ? {
-          readout: readoutMitigation(
-            pIdeal,
-            applyReadout(marginal(diagonalOf(base.rho), n, measured), confusion),
-            applyReadout(first.trueOutcomes, confusion),
-            confusion,
-            options.readout,
-            measured.length,
-          ),
-        }
+      ? { readout: readoutMitigation(pIdeal, pBefore, pRead, confusion, options.readout, measured.length) }
       : {}),
+    distribution: {
+      tvd_before: totalVariationDistance(pIdeal, pBefore),
+      tvd_after: totalVariationDistance(pIdeal, pAfter),
+      classical_before: classicalFidelity(pIdeal, pBefore),
+      classical_after: classicalFidelity(pIdeal, pAfter),
+    },
     warnings,
   };
 }
