@@ -14,7 +14,7 @@
  *   presented by J. Duchi et al., ICML 2008 (from memory). It equals the inverse whenever
  *   that is already a distribution.
  */
-import { CONFUSION_RANGE_TOLERANCE, type ReadoutConfusion } from '../results/probabilities.js';
+import { applyQubitMap, CONFUSION_RANGE_TOLERANCE, type ReadoutConfusion } from '../results/probabilities.js';
 
 /** The readout-correction methods. */
 export type ReadoutMethod = 'inverse' | 'bounded';
@@ -38,14 +38,7 @@ export function invertReadout(pRead: Float64Array, confusion: readonly ReadoutCo
     if (a === 0 && b === 0) continue;
     const det = 1 - a - b;
     if (Math.abs(det) < SINGULAR_CONFUSION) throw new RangeError(`invertReadout: measured qubit #${j} has zero_as_one + one_as_zero = 1; its readout cannot be inverted`);
-    const bit = 1 << (m - 1 - j);
-    for (let k = 0; k < size; k++) {
-      if (k & bit) continue;
-      const r0 = out[k]!;
-      const r1 = out[k | bit]!;
-      out[k] = ((1 - b) * r0 - b * r1) / det;
-      out[k | bit] = (-a * r0 + (1 - a) * r1) / det;
-    }
+    applyQubitMap(out, m, j, (1 - b) / det, -b / det, -a / det, (1 - a) / det);
   }
   return out;
 }

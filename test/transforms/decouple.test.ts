@@ -11,19 +11,12 @@ function withDd(loaded: LoadedCircuit, sequence: 'xx' | 'xy4', qubits?: number[]
   return { dd, sim: simulateLoaded({ ...loaded, circuit: dd.circuit }) };
 }
 
+/** A Ramsey-type wait of `wait` on one qubit between two h gates, under the noise profile lines `noise`. */
+const waitBetweenH = (noise: string, wait = '9us'): string => `qubits: 1\nnoise:\n${noise}steps:\n  - h: 0\n  - idle: 0\n    for: ${wait}\n  - h: 0\n`;
+
 describe('dynamical decoupling', () => {
-  // a Ramsey-type wait under a static detuning only; pulses ideal (no duration, no noise)
-  const ramsey = loadText(`
-qubits: 1
-noise:
-  qubits:
-    all: { detuning: 37kHz }
-steps:
-  - h: 0
-  - idle: 0
-    for: 9us
-  - h: 0
-`);
+  // a static detuning only; pulses ideal (no duration, no noise)
+  const ramsey = loadText(waitBetweenH('  qubits:\n    all: { detuning: 37kHz }\n'));
 
   it('xx restores a detuned idle qubit exactly (Hahn 1950: rz(a/4)·X·rz(a/2)·X·rz(a/4) = I)', () => {
     expect(simulateLoaded(ramsey).result.fidelity.state).toBeLessThan(0.9);
@@ -36,21 +29,7 @@ steps:
   });
 
   it('xy4 pulses take their profile durations (the waits shrink by them) and still improve the run', () => {
-    const timed = loadText(`
-qubits: 1
-noise:
-  qubits:
-    all: { detuning: 37kHz }
-  gates:
-    all: { duration: 0ns }
-    x: { duration: 40ns }
-    y: { duration: 40ns }
-steps:
-  - h: 0
-  - idle: 0
-    for: 9us
-  - h: 0
-`);
+    const timed = loadText(waitBetweenH('  qubits:\n    all: { detuning: 37kHz }\n  gates:\n    x: { duration: 40ns }\n    y: { duration: 40ns }\n'));
     const { dd, sim } = withDd(timed, 'xy4');
     expect(dd.inserted[0]!.pulses).toEqual(['x', 'y', 'x', 'y']);
     expect(sim.schedule.duration).toBe(9000);
@@ -79,17 +58,7 @@ steps:
   });
 
   it('with T1 only, decoupling cannot help: the fidelity is no better (derived: amplitude damping is no unitary error to refocus)', () => {
-    const t1 = loadText(`
-qubits: 1
-noise:
-  qubits:
-    all: { t1: 20us }
-steps:
-  - h: 0
-  - idle: 0
-    for: 8us
-  - h: 0
-`);
+    const t1 = loadText(waitBetweenH('  qubits:\n    all: { t1: 20us }\n', '8us'));
     const plain = simulateLoaded(t1).result.fidelity.state;
     for (const seq of ['xx', 'xy4'] as const) expect(withDd(t1, seq).sim.result.fidelity.state).toBeLessThanOrEqual(plain + EXACT);
   });
