@@ -5,6 +5,7 @@ import { readCircuit } from '../format/circuitFile.js';
 import { fileStart, InputError, ProblemList, type Problem, type SourcePosition } from '../format/problem.js';
 import { readProfile, type ProfileSpec } from '../format/profileSpec.js';
 import { parseYamlTree } from '../format/yamlTree.js';
+import { isQasmPath, readQasm } from '../format/qasm/index.js';
 import { resolveProfile, type NoiseProfile } from '../noise/profile.js';
 
 /** Options for reading a circuit and its noise profile. */
@@ -50,7 +51,7 @@ export function parseCircuitText(
   problems: ProblemList,
   options: LoadOptions & { readDevice?: (path: string, at: SourcePosition) => { text: string; file: string } | undefined } = {},
 ): LoadedCircuit | undefined {
-  const circuit = readCircuit(text, file, problems, options.set ? { set: options.set } : {});
+  const circuit = isQasmPath(file) ? readQasmWithOptions(text, file, problems, options) : readCircuit(text, file, problems, options.set ? { set: options.set } : {});
   if (circuit === undefined) return undefined;
   const specs: ProfileSpec[] = [];
   const devicePath = options.device ?? circuit.device?.value;
@@ -70,6 +71,14 @@ export function parseCircuitText(
   const profile = resolveProfile(specs, circuit, problems);
   if (!problems.ok) return undefined;
   return { circuit, profile, warnings: problems.warnings };
+}
+
+/** An OpenQASM program as a circuit; it has no parameters, so `--set` is refused. */
+function readQasmWithOptions(text: string, file: string, problems: ProblemList, options: LoadOptions): Circuit | undefined {
+  for (const name of Object.keys(options.set ?? {})) {
+    problems.error(fileStart(file), 'unknown-param', `--set ${name}: an OpenQASM program has no parameters to set`);
+  }
+  return readQasm(text, file, problems);
 }
 
 /** Reads and validates a circuit file and its device profile from disk; throws InputError on bad input. */

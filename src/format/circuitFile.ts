@@ -90,6 +90,7 @@ export function readCircuit(
     params,
     channels,
     gateArity,
+    definitions: gates.definitions(),
     observe,
     device,
     inlineNoise,

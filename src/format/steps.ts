@@ -128,7 +128,7 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
         const unitary = gate.unitary(angles, problems);
         if (unitary === undefined) return;
         for (const qubits of apps) {
-          ops.push({ ...base, kind: 'gate', name: gate.name, qubits, unitary, ...(noise ? { noise } : {}) });
+          ops.push({ ...base, kind: 'gate', name: gate.name, qubits, unitary, ...(angles.length > 0 ? { angles } : {}), ...(noise ? { noise } : {}) });
         }
       }
     }

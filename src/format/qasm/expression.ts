@@ -1,0 +1,141 @@
+/**
+ * OpenQASM angle expressions: evaluation (radians), and printing in fray's expression
+ * syntax (src/circuit/expression.ts) and back in OpenQASM's. The two languages share
+ * + − * / and sin cos tan exp ln sqrt; OpenQASM 3 writes powers `**` (OpenQASM 2 `^`, as
+ * fray does) and has the constants pi/π, tau/τ (2π) and euler/ℇ (e).
+ */
+import { EXPRESSION_FUNCTIONS, RESERVED_NAMES, type ExpressionNode } from '../../circuit/expression.js';
+import { suggest } from '../../circuit/suggest.js';
+import type { At, Expr } from './ast.js';
+
+/** OpenQASM's named constants → value (OpenQASM 2 knows only pi). */
+export function qasmConstants(version: 2 | 3): ReadonlyMap<string, number> {
+  const c = new Map<string, number>([['pi', Math.PI]]);
+  if (version === 3) {
+    c.set('π', Math.PI).set('tau', 2 * Math.PI).set('τ', 2 * Math.PI).set('euler', Math.E).set('ℇ', Math.E);
+  }
+  return c;
+}
+
+/** A problem in an expression, located at the offending node. */
+export interface ExprProblem {
+  readonly message: string;
+  readonly at: At;
+}
+
+/** Evaluates an angle expression (radians) with the gate's parameters in `env`. */
+export function evaluateQasm(e: Expr, env: ReadonlyMap<string, number>, version: 2 | 3): { value: number } | { problem: ExprProblem } {
+  const constants = qasmConstants(version);
+  const fail = (message: string, at: At) => ({ problem: { message, at } });
+  const ev = (x: Expr): { value: number } | { problem: ExprProblem } => {
+    switch (x.k) {
+      case 'num':
+        return { value: x.value };
+      case 'id': {
+        const v = env.get(x.name) ?? constants.get(x.name);
+        if (v !== undefined) return { value: v };
+        const known = [...env.keys(), ...constants.keys()];
+        const near = suggest(x.name, known);
+        return fail(`unknown name '${x.name}' in an angle${near !== undefined ? `; did you mean '${near}'?` : ` (known: ${known.join(', ')})`}`, x.at);
+      }
+      case 'neg': {
+        const a = ev(x.arg);
+        return 'problem' in a ? a : { value: -a.value };
+      }
+      case 'bin': {
+        const a = ev(x.l);
+        if ('problem' in a) return a;
+        const b = ev(x.r);
+        if ('problem' in b) return b;
+        const v = x.op === '+' ? a.value + b.value : x.op === '-' ? a.value - b.value : x.op === '*' ? a.value * b.value : x.op === '/' ? a.value / b.value : Math.pow(a.value, b.value);
+        return Number.isFinite(v) ? { value: v } : fail(`the result of '${x.op === '^' ? (version === 3 ? '**' : '^') : x.op}' is not a finite number`, x.at);
+      }
+      case 'call': {
+        if (!EXPRESSION_FUNCTIONS.includes(x.fn)) {
+          const near = suggest(x.fn, EXPRESSION_FUNCTIONS);
+          return fail(`unknown function '${x.fn}'${near !== undefined ? `; did you mean '${near}'?` : ''} (fray reads ${EXPRESSION_FUNCTIONS.join(', ')})`, x.at);
+        }
+        const a = ev(x.arg);
+        if ('problem' in a) return a;
+        const f = { sin: Math.sin, cos: Math.cos, tan: Math.tan, exp: Math.exp, ln: Math.log, sqrt: Math.sqrt }[x.fn as 'sin'];
+        const v = f(a.value);
+        return Number.isFinite(v) ? { value: v } : fail(`the result of '${x.fn}' is not a finite number`, x.at);
+      }
+    }
+  };
+  return ev(e);
+}
+
+/** Binding strength for printing: sums 1, products 2, unary minus 3, powers 4, atoms 5. */
+const PREC = { '+': 1, '-': 1, '*': 2, '/': 2, neg: 3, '^': 4, atom: 5 } as const;
+
+/** A parameter name that fray's expressions reserve (pi, e, i, deg, the functions) gets a trailing underscore. */
+export function frayParamName(name: string): string {
+  return RESERVED_NAMES.includes(name) ? `${name}_` : name;
+}
+
+/** An OpenQASM expression in fray's expression syntax (constants as numbers or `pi`, powers `^`). */
+export function toFrayText(e: Expr): string {
+  const p = (x: Expr, min: number): string => {
+    const [text, prec] = ((): [string, number] => {
+      switch (x.k) {
+        case 'num':
+          return [String(x.value), PREC.atom];
+        case 'id':
+          if (x.name === 'pi' || x.name === 'π') return ['pi', PREC.atom];
+          if (x.name === 'tau' || x.name === 'τ') return ['2*pi', PREC['*']];
+          if (x.name === 'euler' || x.name === 'ℇ') return ['e', PREC.atom];
+          return [frayParamName(x.name), PREC.atom];
+        case 'neg':
+          return [`-${p(x.arg, PREC.neg)}`, PREC.neg];
+        case 'call':
+          return [`${x.fn}(${p(x.arg, 0)})`, PREC.atom];
+        case 'bin': {
+          const me = PREC[x.op];
+          // left-associative + − * /: the right operand needs parentheses at equal strength; ^ is right-associative
+          const l = x.op === '^' ? p(x.l, me + 1) : p(x.l, me);
+          const r = x.op === '^' ? p(x.r, PREC.neg) : p(x.r, me + 1);
+          return [x.op === '^' ? `${l}^${r}` : `${l} ${x.op} ${r}`, me];
+        }
+      }
+    })();
+    return prec < min ? `(${text})` : text;
+  };
+  return p(e, 0);
+}
+
+/**
+ * A fray expression tree in OpenQASM syntax. Names listed in `values` (the circuit's
+ * parameters) are written as their numbers; other names are kept (a gate's own parameters).
+ */
+export function fromFrayTree(node: ExpressionNode, version: 2 | 3, values: Readonly<Record<string, number>>): string {
+  const p = (x: ExpressionNode, min: number): string => {
+    const [text, prec] = ((): [string, number] => {
+      switch (x.k) {
+        case 'num':
+          return [String(x.re), PREC.atom];
+        case 'name':
+          if (x.name === 'pi') return ['pi', PREC.atom];
+          if (x.name === 'e') return [version === 3 ? 'euler' : 'exp(1)', PREC.atom];
+          if (Object.prototype.hasOwnProperty.call(values, x.name)) {
+            const v = values[x.name]!;
+            return v < 0 ? [`-${String(-v)}`, PREC.neg] : [String(v), PREC.atom];
+          }
+          return [x.name, PREC.atom];
+        case 'neg':
+          return [`-${p(x.arg, PREC.neg)}`, PREC.neg];
+        case 'call':
+          return [`${x.fn}(${p(x.arg, 0)})`, PREC.atom];
+        case 'bin': {
+          const op = x.op as keyof typeof PREC & ('+' | '-' | '*' | '/' | '^');
+          const me = PREC[op];
+          const l = op === '^' ? p(x.l, me + 1) : p(x.l, me);
+          const r = op === '^' ? p(x.r, PREC.neg) : p(x.r, me + 1);
+          return [op === '^' ? `${l}${version === 3 ? '**' : '^'}${r}` : `${l} ${op} ${r}`, me];
+        }
+      }
+    })();
+    return prec < min ? `(${text})` : text;
+  };
+  return p(node, 0);
+}
