@@ -4,6 +4,7 @@ import { runCommand } from './runCommand.js';
 import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
 import { makeStyle, wantColor } from './style.js';
 import { renderProblems } from './problems.js';
+import { addFormatCommands } from './formatCommands.js';
 
 /** Exit statuses of the fray command (the contract's): success, internal error, input error. */
 export const EXIT = { ok: 0, internal: 1, input: 2 } as const;
@@ -81,7 +82,7 @@ function buildProgram(io: CliIO): Command {
   const run = program
     .command('run')
     .description('simulate one circuit file: ideal and noisy runs, fidelities, outcome table')
-    .argument('<file>', 'circuit file (YAML)')
+    .argument('<file>', 'circuit file (YAML, or an OpenQASM 2.0/3 program ending in .qasm)')
     .option('--json', 'print one JSON object instead of the report')
     .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
     .addOption(new Option('--set <name=value...>', 'override a circuit parameter (repeatable), e.g. --set theta=0.4 --set "phi=pi/8"'))
@@ -136,6 +137,7 @@ function buildProgram(io: CliIO): Command {
       await channelCommand(file, name, opts, io);
     });
   channel.exitOverride();
+  addFormatCommands(program, io);
   return program;
 }
 
