@@ -30,12 +30,13 @@ export function definitionUnitary(
       if ('error' in v) return { error: `gate '${def.name}', step ${s.gate}: ${v.error.message}` };
       angles.push(v.value);
     }
-    const b = builtinGate(s.gate);
+    // a definition of the same name shadows an OpenQASM-named built-in (src/circuit/gates.ts)
+    const inner = definitions.get(s.gate);
+    const b = inner === undefined ? builtinGate(s.gate) : undefined;
     if (b !== undefined) {
       parts.push({ matrix: b.matrix(angles), targets: s.targets });
       continue;
     }
-    const inner = definitions.get(s.gate);
     if (inner === undefined) return { error: `gate '${def.name}' uses unknown gate '${s.gate}'` };
     const u = definitionUnitary(inner, angles, definitions);
     if ('error' in u) return u;

@@ -126,6 +126,13 @@ const TABLE: readonly GateDef[] = [
   gate('c4x', 5, [], () => controlled(controlled(controlled(controlled(pauliX()))))),
 ];
 
+/**
+ * The built-ins added under OpenQASM's header names. A circuit's own custom gate of one of
+ * these names takes precedence over the built-in, so circuits written before they existed
+ * keep their meaning.
+ */
+export const OPENQASM_NAMED_GATES: ReadonlySet<string> = new Set(['u1', 'u2', 'u3', 'cu1', 'cu3', 'cu', 'csx', 'c3x', 'c4x']);
+
 /** Alternative names of built-in gates → the gate's own name (`id` is `i`: one gate, one profile entry). */
 export const GATE_ALIASES: ReadonlyMap<string, string> = new Map([['id', 'i']]);
 

@@ -1,4 +1,4 @@
-import { BUILTIN_GATES } from '../circuit/gates.js';
+import { BUILTIN_GATES, OPENQASM_NAMED_GATES } from '../circuit/gates.js';
 import { sequenceUnitary } from '../circuit/compose.js';
 import { RESERVED_NAMES } from '../circuit/expression.js';
 import { unitarityResidual, type CMatrix } from '../linalg/cmatrix.js';
@@ -44,6 +44,8 @@ export class GateLibrary {
 
   /** The gate called `name`, if any. */
   get(name: string): LibraryGate | undefined {
+    const own = OPENQASM_NAMED_GATES.has(name) ? this.customs.get(name) : undefined;
+    if (own !== undefined) return own;
     const b = BUILTIN_GATES.get(name);
     if (b !== undefined) {
       return { name: b.name, qubits: b.qubits, params: b.params, kind: 'builtin', unitary: (a) => b.matrix(a) };
@@ -60,7 +62,7 @@ export class GateLibrary {
 
   /** Every gate name, built-in and custom. */
   names(): string[] {
-    return [...BUILTIN_GATES.keys(), ...this.customs.keys()];
+    return [...new Set([...BUILTIN_GATES.keys(), ...this.customs.keys()])];
   }
 
   /** Reads the circuit's `gates:` map. */
@@ -75,7 +77,7 @@ export class GateLibrary {
         problems.error(e.keyAt, 'bad-gate-name', `gate name '${e.key}' must be a word of letters, digits and _ starting with a letter`);
         continue;
       }
-      if (BUILTIN_GATES.has(e.key) || reserved.has(e.key)) {
+      if ((BUILTIN_GATES.has(e.key) && !OPENQASM_NAMED_GATES.has(e.key)) || reserved.has(e.key)) {
         problems.error(e.keyAt, 'reserved-gate-name', `'${e.key}' is a built-in gate or a reserved word; give the custom gate another name`);
         continue;
       }

@@ -111,6 +111,7 @@ class Lowering {
   }
 
   run(): Circuit | undefined {
+    this.physicalQubits();
     this.program.statements.forEach((s, i) => this.statement(s, i));
     if (this.labels.length === 0 && this.problems.ok) {
       this.error(this.program.versionAt, 'no-qubits', `the program declares no qubits; declare them with ${this.version === 2 ? "'qreg q[n];'" : "'qubit[n] q;'"}`);
@@ -136,6 +137,36 @@ class Lowering {
       stepsAt: fileStart(this.file),
       qubitsAt: this.pos(at),
     };
+  }
+
+  /**
+   * OpenQASM 3's physical qubits `$0`, `$1`, … need no declaration: the ones a program uses
+   * become its qubits in ascending number, labelled `$k`. A program may not also declare qubits.
+   */
+  private physicalQubits(): void {
+    const used = new Map<number, At>();
+    const visit = (st: Statement): void => {
+      const ops: Operand[] = st.k === 'call' || st.k === 'reset' || st.k === 'barrier' || st.k === 'delay' ? [...st.operands] : st.k === 'measure' ? [st.qubit] : [];
+      for (const o of ops) if (o.name.startsWith('$') && !used.has(Number(o.name.slice(1)))) used.set(Number(o.name.slice(1)), o.at);
+      if (st.k === 'if') st.body.forEach(visit);
+    };
+    this.program.statements.forEach(visit);
+    if (used.size === 0) return;
+    const declared = this.program.statements.find((st) => st.k === 'qreg');
+    if (declared !== undefined) {
+      this.error(declared.at, 'qasm-physical', `the program uses physical qubits (${[...used.keys()].map((k) => `$${k}`).join(', ')}) and declares qubits; use one or the other`);
+      return;
+    }
+    const ks = [...used.keys()].sort((a, b) => a - b);
+    if (ks.length > MAX_DECLARED_QUBITS) {
+      this.error(used.get(ks[MAX_DECLARED_QUBITS]!)!, 'qasm-size', `the program uses ${ks.length} physical qubits; fray simulates at most ${MAX_DECLARED_QUBITS}`);
+      return;
+    }
+    for (const k of ks) {
+      this.qregs.set(`$${k}`, { offset: this.labels.length, size: 1, sized: false, at: used.get(k)! });
+      this.labels.push(`$${k}`);
+    }
+    this.firstQregAt = used.get(ks[0]!);
   }
 
   private statement(s: Statement, index: number): void {
@@ -303,7 +334,8 @@ class Lowering {
     let a: readonly A[] = angles;
     const where = mods[0]?.at;
     if (invert) {
-      const inv = g.composite ? undefined : inverseOfAngles(name, a, ops);
+      const inv = g.composite ? this.inverseComposite(name, a, where!) : inverseOfAngles(name, a, ops);
+      if (inv === null) return undefined;
       if (inv === undefined) {
         this.error(where!, 'qasm-modifier', `inv @ ${name}: fray has no built-in inverse of '${name}'; define the inverse as a gate of its own`);
         return undefined;
@@ -325,6 +357,37 @@ class Lowering {
       ...negated.map((q) => ({ name: 'x', angles: [], targets: [q] })),
     ];
     return Array.from({ length: repeat }, () => one).flat();
+  }
+
+  /**
+   * `inv @ g` for a defined gate g: the composite `g_inv` (g's steps reversed, each replaced
+   * by its built-in inverse), defined once; it is a gate of its own for noise profiles.
+   * Null when it cannot be built (the problem is recorded).
+   */
+  private inverseComposite<A>(name: string, angles: readonly A[], at: At): { name: string; angles: A[] } | null {
+    const invName = `${name}_inv`;
+    const existing = this.definitions.get(invName);
+    if (existing === undefined) {
+      if (this.defined.has(invName) || builtinGate(invName) !== undefined) {
+        this.error(at, 'qasm-modifier', `inv @ ${name} would define '${invName}', which already names another gate; define the inverse yourself`);
+        return null;
+      }
+      const def = this.definitions.get(name)!;
+      if (def.kind !== 'composite') return null;
+      const steps: CompositeStep[] = [];
+      for (const st of [...def.steps].reverse()) {
+        const inner = this.definitions.get(st.gate);
+        const inv = inner !== undefined ? this.inverseComposite(st.gate, st.angles, at) : inverseOfAngles(st.gate, st.angles, textOps);
+        if (inv === null) return null;
+        if (inv === undefined) {
+          this.error(at, 'qasm-modifier', `inv @ ${name}: its step '${st.gate}' has no built-in inverse in fray; define the inverse as a gate of its own`);
+          return null;
+        }
+        steps.push({ gate: inv.name, targets: st.targets, angles: inv.angles });
+      }
+      this.definitions.set(invName, { kind: 'composite', name: invName, qubits: def.qubits, params: def.params, steps });
+    }
+    return { name: invName, angles: [...angles] };
   }
 
   private call(s: GateCall, index: number): void {

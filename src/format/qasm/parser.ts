@@ -329,7 +329,7 @@ class QasmParser extends EmbeddedActionsParser {
   });
 
   operand = this.RULE('operand', (): Operand => {
-    const name = this.CONSUME(T.Identifier);
+    const name = this.OR([{ ALT: () => this.CONSUME(T.Identifier) }, { ALT: () => this.CONSUME(T.PhysicalQubit) }]);
     let index: number | null = null;
     let indexAt: At | null = null;
     this.OPTION(() => {
@@ -452,8 +452,11 @@ export function parseQasm(text: string): { program: Program } | { problem: Synta
     const program = parser.program();
     if (parser.errors.length > 0) {
       const e = parser.errors[0]!;
+      const previous = (e as { previousToken?: IToken }).previousToken;
+      // a missing ';' belongs right after the statement it ends, not at the next token
+      const afterPrevious = e.message.startsWith("expected ';'") && previous !== undefined && previous.tokenType !== EOF;
       const tok = e.token.tokenType === EOF ? lexed.tokens[lexed.tokens.length - 1] : e.token;
-      const where = tok === undefined ? { line: 1, col: 1 } : e.token.tokenType === EOF ? endOf(tok) : at(tok);
+      const where = afterPrevious ? endOf(previous) : tok === undefined ? { line: 1, col: 1 } : e.token.tokenType === EOF ? endOf(tok) : at(tok);
       return { problem: { message: e.message, at: where } };
     }
     return { program };

@@ -30,6 +30,9 @@ export const Negctrl = keyword('negctrl');
 export const Inv = keyword('inv');
 export const Pow = keyword('pow');
 
+/** A physical qubit of OpenQASM 3, `$0`, `$1`, … */
+export const PhysicalQubit = createToken({ name: 'PhysicalQubit', label: 'a physical qubit such as $0', pattern: /\$\d+/ });
+
 /** A duration: a number glued to its unit (OpenQASM 3). Matched before plain numbers. */
 export const DurationLit = createToken({ name: 'DurationLit', label: 'a duration such as 100ns', pattern: /(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?(?:ns|us|µs|ms|dt|s)(?![A-Za-z0-9_])/ });
 /** A real or integer literal. */
@@ -89,6 +92,7 @@ export const ALL_TOKENS: TokenType[] = [
   Inv,
   Pow,
   Identifier,
+  PhysicalQubit,
   DurationLit,
   NumberLit,
   StringLit,

@@ -86,6 +86,10 @@ export function writeQasm(circuit: Circuit, options: QasmWriteOptions, problems:
     if (defined.has(name)) return true;
     const d = defs.get(name);
     if (d === undefined) return false;
+    if (header.includes(name) || builtinGate(name) !== undefined) {
+      problems.error(at, 'qasm-export', `custom gate '${name}' has the name of a standard OpenQASM gate; rename it to export the circuit`);
+      return false;
+    }
     if (d.kind === 'matrix') {
       if (d.qubits !== 1) {
         problems.error(at, 'qasm-export', `custom matrix gate '${name}' acts on ${d.qubits} qubits; OpenQASM has no matrix gates and fray decomposes only 1-qubit matrices (ZYZ); write it as a composite gate`);
@@ -97,8 +101,9 @@ export function writeQasm(circuit: Circuit, options: QasmWriteOptions, problems:
       return true;
     }
     for (const s of d.steps) {
-      if (builtinGate(s.gate) !== undefined) needBuiltin(builtinGate(s.gate)!.name);
-      else if (!needCustom(s.gate, at)) return false;
+      if (defs.has(s.gate)) {
+        if (!needCustom(s.gate, at)) return false;
+      } else needBuiltin(builtinGate(s.gate)!.name);
     }
     defined.add(name);
     body.push(compositeText(d, v, circuit.params));
@@ -113,7 +118,7 @@ export function writeQasm(circuit: Circuit, options: QasmWriteOptions, problems:
     const qs = op.qubits.map((q) => reg.ref[q]!).join(', ');
     switch (op.kind) {
       case 'gate': {
-        const b = builtinGate(op.name);
+        const b = defs.has(op.name) ? undefined : builtinGate(op.name);
         if (b !== undefined && (b.params.length === 0 || op.angles !== undefined)) {
           needBuiltin(b.name);
           const args = b.params.length > 0 ? `(${op.angles!.map(angleText).join(', ')})` : '';
@@ -156,6 +161,7 @@ export function writeQasm(circuit: Circuit, options: QasmWriteOptions, problems:
         break;
     }
   }
+  if (circuit.inlineNoise !== null) problems.warn(circuit.stepsAt, 'qasm-export-noise', "the circuit's own 'noise:' profile is dropped: noise is not part of OpenQASM (give it as a device file with --device when you run the program)");
   if (dropped > 0) problems.warn(circuit.stepsAt, 'qasm-export-noise', `${dropped} step${dropped === 1 ? '' : 's'}' own 'noise:' dropped: noise is not part of OpenQASM`);
   if (!problems.ok) return undefined;
   lines.push(...body);
@@ -175,7 +181,7 @@ function compositeText(d: CompositeGateDefinition, v: 2 | 3, circuitParams: Read
       if ('error' in t) throw new Error(`internal: angle '${a}' of gate '${d.name}' does not parse`);
       return fromFrayTree(t.tree, v, values);
     });
-    const name = builtinGate(s.gate)?.name ?? s.gate;
+    const name = builtinGate(s.gate)?.name ?? s.gate; // custom gates never share a built-in's name here (needCustom refuses)
     return `${QASM_NAME.get(name) ?? name}${args.length > 0 ? `(${args.join(', ')})` : ''} ${s.targets.map((t) => `q${t}`).join(', ')};`;
   });
   const params = d.params.length > 0 ? `(${d.params.join(', ')})` : '';
