@@ -548,7 +548,7 @@ class Lowering {
         this.problems.warn(
           this.pos(r.at),
           'qasm-record-order',
-          `${this.bitNames[r.bit]} holds ${this.labels[r.qubit]} but an earlier bit holds ${this.labels[byBit[i - 1]!.qubit]}: fray lists outcomes by qubit (${this.labels[byBit[0]!.qubit] ?? 'the first measured qubit'} order, lowest index leftmost), not by bit`,
+          `${this.bitNames[r.bit]} holds ${this.labels[r.qubit]} but an earlier bit holds ${this.labels[byBit[i - 1]!.qubit]}: fray's outcomes list the measured qubits in ascending order (lowest leftmost), so they are not in this program's bit order`,
         );
         return;
       }

@@ -1,6 +1,7 @@
 /**
  * Constructs of OpenQASM 3 that fray does not simulate (loops, subroutines, classical
- * variables and arithmetic, extern, timing boxes, calibrations, pragmas and annotations).
+ * variables and arithmetic, extern, timing boxes, calibrations, pragmas and annotations,
+ * index ranges and sets).
  * They are found on the token stream, at the start of a statement, before the grammar
  * runs, so the message names the construct rather than a token the grammar did not expect.
  */
@@ -45,8 +46,8 @@ const WHAT_FRAY_READS = 'fray reads register declarations, gate definitions and 
 /** The first unsupported OpenQASM 3 construct at a statement start, with its message and position. */
 export function findUnsupported(tokens: readonly IToken[]): { message: string; at: At } | undefined {
   // In OpenQASM 2.0 these words are ordinary names (a gate may be called 'box').
-  if (tokens[0]?.image === 'OPENQASM' && Number(tokens[1]?.image) === 2) return undefined;
-  let start = true;
+  const v2 = tokens[0]?.image === 'OPENQASM' && Number(tokens[1]?.image) === 2;
+  let start = !v2;
   for (let i = 0; i < tokens.length; i++) {
     const t = tokens[i]!;
     const at = { line: t.startLine ?? 1, col: t.startColumn ?? 1 };
@@ -56,8 +57,16 @@ export function findUnsupported(tokens: readonly IToken[]): { message: string; a
       if (t.image === '#' || t.image === '@') return { message: `${t.image === '#' ? 'pragmas' : 'annotations'} are not supported; ${WHAT_FRAY_READS}`, at };
     }
     // an assignment other than `bit = measure …`, or an increment, is classical arithmetic
-    if (t.image === '=' && tokens[i + 1]?.image !== 'measure') return { message: `${CLASSICAL} are not supported; ${WHAT_FRAY_READS}`, at };
-    start = t.image === ';' || t.image === '{' || t.image === '}';
+    if (!v2 && t.image === '=' && tokens[i + 1]?.image !== 'measure') return { message: `${CLASSICAL} are not supported; ${WHAT_FRAY_READS}`, at };
+    start = !v2 && (t.image === ';' || t.image === '{' || t.image === '}');
+  }
+  for (let i = 0; i + 2 < tokens.length; i++) {
+    if (tokens[i]!.image !== '[') continue;
+    const set = tokens[i + 1]!.image === '{';
+    if (set || tokens[i + 2]!.image === ':' || tokens[i + 1]!.image === ':') {
+      const t = tokens[i]!;
+      return { message: `index ${set ? 'sets (q[{0, 1}])' : 'ranges (q[0:2])'} are not supported; name each qubit, or the whole register`, at: { line: t.startLine ?? 1, col: t.startColumn ?? 1 } };
+    }
   }
   return undefined;
 }

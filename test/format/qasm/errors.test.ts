@@ -63,6 +63,8 @@ const cases: { name: string; text: string; where: string; says: string }[] = [
   { name: 'calibration', text: H3 + 'defcal x $0 { }\n', where: 'p.qasm:3:1', says: 'pulse-level calibrations are not supported' },
   { name: 'delay in device cycles', text: H3 + 'qubit[1] q;\ndelay[100dt] q[0];\n', where: 'p.qasm:4:7', says: "'dt' (one device cycle) has no fixed length" },
   { name: 'physical qubits next to declared ones', text: H3 + 'qubit[1] q;\nh $0;\n', where: 'p.qasm:3:1', says: 'uses physical qubits ($0) and declares qubits' },
+  { name: 'index range', text: H3 + 'qubit[3] q;\nh q[0:2];\n', where: 'p.qasm:4:4', says: 'index ranges (q[0:2]) are not supported' },
+  { name: 'index set', text: H3 + 'qubit[3] q;\nh q[{0, 2}];\n', where: 'p.qasm:4:4', says: 'index sets' },
   { name: 'delay in a 2.0 program', text: H2 + 'qreg q[1];\ndelay[100ns] q[0];\n', where: 'p.qasm:4:1', says: "'delay' is OpenQASM 3" },
 ];
 

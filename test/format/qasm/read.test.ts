@@ -110,9 +110,26 @@ steps:
     expect(a.fidelity.state).toBeLessThan(0.999); // the profile really acted
   });
 
+  it('bits assigned out of qubit order: outcomes stay in qubit order and a located warning says so', () => {
+    const sim = runProgram('OPENQASM 2.0;\ninclude "qelib1.inc";\nqreg q[2];\ncreg c[2];\nx q[0];\nmeasure q[1] -> c[0];\nmeasure q[0] -> c[1];\n');
+    expect(sim.result.probabilities.ideal).toEqual({ '10': 1 });
+    expect(sim.result.warnings[0]).toMatch(/^p\.qasm:7:1: c\[1\] holds q\[0\] but an earlier bit holds q\[1\]/);
+  });
+
   it('if (c == n) is refused until mid-circuit measurement exists (see errors.test.ts), U and CX need no header', () => {
     const r = runProgram('OPENQASM 2.0;\nqreg q[1];\nqreg r[1];\nU(pi, 0, pi) q[0];\nCX q[0], r[0];\n').result;
     expect(r.probabilities.ideal).toEqual({ '11': 1 });
+  });
+});
+
+describe('labels of the form name[index]', () => {
+  it('name qubits in YAML steps, per-qubit profile entries and gate tuple keys', () => {
+    const yaml = 'qubits: ["q[0]", "anc[1]"]\nsteps:\n  - cx: ["q[0]", "anc[1]"]\n  - measure: "anc[1]"\n';
+    const device = 'name: d\nqubits:\n  all: { t1: 50us }\n  "anc[1]": { t1: 10us }\ngates:\n  "cx q[0] anc[1]": { duration: 100ns, error: 0.05 }\n';
+    const loaded = loadProgram(yaml, 'p.yaml', device);
+    expect(loaded.profile.qubits[1]!.t1).toBe(10000);
+    expect(loaded.profile.gateEntry('cx', [0, 1]).duration).toBe(100);
+    expect(loaded.circuit.operations[1]!.qubits).toEqual([1]);
   });
 });
 
