@@ -11,7 +11,13 @@ export { loadCircuit, parseCircuitText, parseProfileText } from './api/loadCircu
 export type { LoadedCircuit, LoadOptions } from './api/loadCircuit.js';
 export { InputError, ProblemList, formatProblem } from './format/problem.js';
 export type { Problem, SourcePosition } from './format/problem.js';
-export type { Circuit, Operation, Register } from './circuit/circuit.js';
+export type { Circuit, Operation, Register, GateDefinition } from './circuit/circuit.js';
+export { readQasm, isQasmPath, writeQasm } from './format/qasm/index.js';
+export type { QasmWriteOptions } from './format/qasm/index.js';
+export { writeCircuitYaml } from './format/writeCircuit.js';
+export { convertToYaml, exportQasm } from './api/convert.js';
+export type { Converted } from './api/convert.js';
+export { zyzAngles } from './circuit/zyz.js';
 export { BUILTIN_GATES } from './circuit/gates.js';
 export type { NoiseProfile, QubitNoise, GateEntry } from './noise/profile.js';
 export type { Schedule, TimedOperation, IdleWindow } from './schedule/schedule.js';

@@ -5,7 +5,7 @@
  */
 import { basename } from 'node:path';
 import { InputError, ProblemList, type Problem } from '../format/problem.js';
-import { writeQasm } from '../format/qasm/write.js';
+import { writeQasm } from '../format/qasm/index.js';
 import { writeCircuitYaml } from '../format/writeCircuit.js';
 import { loadCircuit, type LoadOptions } from './loadCircuit.js';
 

@@ -74,28 +74,37 @@ export function frayParamName(name: string): string {
   return RESERVED_NAMES.includes(name) ? `${name}_` : name;
 }
 
-/** An OpenQASM expression in fray's expression syntax (constants as numbers or `pi`, powers `^`). */
-export function toFrayText(e: Expr): string {
+/** Which language an expression is printed in: fray's (src/circuit/expression.ts) or OpenQASM 2.0 / 3. */
+export type ExprSyntax = 'fray' | 2 | 3;
+
+/**
+ * Prints an expression with the fewest parentheses its precedence needs. fray and OpenQASM
+ * 2.0 write powers `^`, OpenQASM 3 `**`; π is `pi` in all three; τ becomes `2*pi`; Euler's
+ * number is `e` in fray, `euler` in OpenQASM 3 and `exp(1)` in 2.0 (which has no constant for it).
+ */
+export function printExpr(e: Expr, syntax: ExprSyntax): string {
   const p = (x: Expr, min: number): string => {
     const [text, prec] = ((): [string, number] => {
       switch (x.k) {
         case 'num':
-          return [String(x.value), PREC.atom];
+          return x.value < 0 ? [`-${String(-x.value)}`, PREC.neg] : [String(x.value), PREC.atom];
         case 'id':
           if (x.name === 'pi' || x.name === 'π') return ['pi', PREC.atom];
           if (x.name === 'tau' || x.name === 'τ') return ['2*pi', PREC['*']];
-          if (x.name === 'euler' || x.name === 'ℇ') return ['e', PREC.atom];
-          return [frayParamName(x.name), PREC.atom];
+          if (x.name === 'euler' || x.name === 'ℇ') {
+            return syntax === 'fray' ? ['e', PREC.atom] : syntax === 3 ? ['euler', PREC.atom] : ['exp(1)', PREC.atom];
+          }
+          return [syntax === 'fray' ? frayParamName(x.name) : x.name, PREC.atom];
         case 'neg':
           return [`-${p(x.arg, PREC.neg)}`, PREC.neg];
         case 'call':
           return [`${x.fn}(${p(x.arg, 0)})`, PREC.atom];
         case 'bin': {
           const me = PREC[x.op];
-          // left-associative + − * /: the right operand needs parentheses at equal strength; ^ is right-associative
+          // left-associative + − * /: the right operand needs parentheses at equal strength; powers are right-associative
           const l = x.op === '^' ? p(x.l, me + 1) : p(x.l, me);
           const r = x.op === '^' ? p(x.r, PREC.neg) : p(x.r, me + 1);
-          return [x.op === '^' ? `${l}^${r}` : `${l} ${x.op} ${r}`, me];
+          return [x.op === '^' ? `${l}${syntax === 3 ? '**' : '^'}${r}` : `${l} ${x.op} ${r}`, me];
         }
       }
     })();
@@ -104,38 +113,29 @@ export function toFrayText(e: Expr): string {
   return p(e, 0);
 }
 
+/** An OpenQASM expression in fray's expression syntax. */
+export function toFrayText(e: Expr): string {
+  return printExpr(e, 'fray');
+}
+
 /**
- * A fray expression tree in OpenQASM syntax. Names listed in `values` (the circuit's
- * parameters) are written as their numbers; other names are kept (a gate's own parameters).
+ * A fray expression tree as an expression of ./ast.ts (fray's `e` becomes Euler's number,
+ * names listed in `values` — the circuit's parameters — become their numbers, other names stay).
  */
-export function fromFrayTree(node: ExpressionNode, version: 2 | 3, values: Readonly<Record<string, number>>): string {
-  const p = (x: ExpressionNode, min: number): string => {
-    const [text, prec] = ((): [string, number] => {
-      switch (x.k) {
-        case 'num':
-          return [String(x.re), PREC.atom];
-        case 'name':
-          if (x.name === 'pi') return ['pi', PREC.atom];
-          if (x.name === 'e') return [version === 3 ? 'euler' : 'exp(1)', PREC.atom];
-          if (Object.prototype.hasOwnProperty.call(values, x.name)) {
-            const v = values[x.name]!;
-            return v < 0 ? [`-${String(-v)}`, PREC.neg] : [String(v), PREC.atom];
-          }
-          return [x.name, PREC.atom];
-        case 'neg':
-          return [`-${p(x.arg, PREC.neg)}`, PREC.neg];
-        case 'call':
-          return [`${x.fn}(${p(x.arg, 0)})`, PREC.atom];
-        case 'bin': {
-          const op = x.op as keyof typeof PREC & ('+' | '-' | '*' | '/' | '^');
-          const me = PREC[op];
-          const l = op === '^' ? p(x.l, me + 1) : p(x.l, me);
-          const r = op === '^' ? p(x.r, PREC.neg) : p(x.r, me + 1);
-          return [op === '^' ? `${l}${version === 3 ? '**' : '^'}${r}` : `${l} ${op} ${r}`, me];
-        }
-      }
-    })();
-    return prec < min ? `(${text})` : text;
-  };
-  return p(node, 0);
+export function fromFrayTree(node: ExpressionNode, values: Readonly<Record<string, number>>): Expr {
+  const at = { line: 0, col: node.at };
+  switch (node.k) {
+    case 'num':
+      return { k: 'num', value: node.re, at };
+    case 'name':
+      if (node.name === 'e') return { k: 'id', name: 'euler', at };
+      if (Object.prototype.hasOwnProperty.call(values, node.name)) return { k: 'num', value: values[node.name]!, at };
+      return { k: 'id', name: node.name, at };
+    case 'neg':
+      return { k: 'neg', arg: fromFrayTree(node.arg, values), at };
+    case 'call':
+      return { k: 'call', fn: node.fn, arg: fromFrayTree(node.arg, values), at };
+    case 'bin':
+      return { k: 'bin', op: node.op as '+' | '-' | '*' | '/' | '^', l: fromFrayTree(node.l, values), r: fromFrayTree(node.r, values), at };
+  }
 }

@@ -6,6 +6,8 @@ export { readQasm, QASM_TIME_UNITS, SAME_GATE_TOLERANCE } from './lower.js';
 export { parseQasm } from './parser.js';
 export type { Program as QasmProgram } from './ast.js';
 export { HEADER, QELIB1_GATES, STDGATES, QASM_ALIASES } from './library.js';
+export { writeQasm, EXPORT_DEFINITIONS } from './write.js';
+export type { QasmWriteOptions } from './write.js';
 
 /** Whether a path names an OpenQASM program (by its `.qasm` extension, any case). */
 export function isQasmPath(path: string): boolean {

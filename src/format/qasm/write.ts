@@ -17,7 +17,7 @@ import { zyzAngles } from '../../circuit/zyz.js';
 import { angleText } from '../angleText.js';
 import { formatDuration } from '../duration.js';
 import type { ProblemList } from '../problem.js';
-import { fromFrayTree } from './expression.js';
+import { fromFrayTree, printExpr } from './expression.js';
 import { HEADER, QELIB1_GATES, STDGATES } from './library.js';
 
 /** fray built-in → its name in a program (when it differs). */
@@ -179,7 +179,7 @@ function compositeText(d: CompositeGateDefinition, v: 2 | 3, circuitParams: Read
     const args = s.angles.map((a) => {
       const t = parseExpression(a);
       if ('error' in t) throw new Error(`internal: angle '${a}' of gate '${d.name}' does not parse`);
-      return fromFrayTree(t.tree, v, values);
+      return printExpr(fromFrayTree(t.tree, values), v);
     });
     const name = builtinGate(s.gate)?.name ?? s.gate; // custom gates never share a built-in's name here (needCustom refuses)
     return `${QASM_NAME.get(name) ?? name}${args.length > 0 ? `(${args.join(', ')})` : ''} ${s.targets.map((t) => `q${t}`).join(', ')};`;

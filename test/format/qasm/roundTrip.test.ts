@@ -128,3 +128,27 @@ describe('what OpenQASM cannot state is refused with the reason', () => {
     expect(v2.problems.warnings.map(formatProblem)[0]).toMatch(/^i\.yaml:4:5: warning: the idle on q\[0\] is dropped/);
   });
 });
+
+describe('composite gates with angle expressions survive export', () => {
+  it('a YAML composite using its parameters, a circuit parameter, e and powers reads back with the same unitary (OpenQASM 2.0 and 3)', () => {
+    const yaml = `qubits: 2
+params: { k: -0.25 }
+gates:
+  tw:
+    qubits: 2
+    params: [a, b]
+    steps: [ {rz: 0, angle: "-a^2/2 + k"}, {cx: [0, 1]}, {ry: 1, angle: "(b - a)*e - sin(a)^-1"}, {u: 0, angles: [a, "2*b", "-(a+b)/3"]} ]
+steps:
+  - h: 0
+  - tw: [0, 1]
+    angles: [0.7, "pi/5"]
+`;
+    for (const version of [2, 3] as const) {
+      const a = loadProgram(yaml, 'c.yaml').circuit.operations[1] as GateOperation;
+      const { qasm } = exported(yaml, 'c.yaml', 'name: none\n', version);
+      const b = loadProgram(qasm, 'c.qasm').circuit.operations[1] as GateOperation;
+      expect(b.name).toBe('tw');
+      expect(maxAbsDiff(a.unitary, b.unitary)).toBeLessThan(TWIN);
+    }
+  });
+});
