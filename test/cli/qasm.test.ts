@@ -24,7 +24,7 @@ describe('fray run, convert and export with OpenQASM', () => {
     expect(r.code).toBe(2);
     expect(r.out).toBe('');
     expect(r.err).toMatch(LOCATED);
-    expect(r.err).toContain(`${path}:4:8: expected ';' but found 'q'`);
+    expect(r.err).toContain(`${path}:4:9: expected ',' between operands or ';' at the end of the statement, but found 'q'`);
   });
 
   it('convert writes readable YAML with a header naming the source, which runs to the same figures', async () => {

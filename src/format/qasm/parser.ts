@@ -454,9 +454,14 @@ export function parseQasm(text: string): { program: Program } | { problem: Synta
       const e = parser.errors[0]!;
       const previous = (e as { previousToken?: IToken }).previousToken;
       // a missing ';' belongs right after the statement it ends, not at the next token
-      const afterPrevious = e.message.startsWith("expected ';'") && previous !== undefined && previous.tokenType !== EOF;
+      const wantSemi = e.message.startsWith("expected ';'") && previous !== undefined && previous.tokenType !== EOF;
+      // an operand right after another on the same line: the ',' between them is missing
+      const operandish = (t: IToken): boolean => t.tokenType === T.Identifier || t.tokenType === T.PhysicalQubit || t.tokenType === T.RBracket;
+      if (wantSemi && operandish(previous) && operandish(e.token) && e.token.tokenType !== T.RBracket && e.token.startLine === previous.endLine) {
+        return { problem: { message: `expected ',' between operands or ';' at the end of the statement, but found '${e.token.image}'`, at: at(e.token) } };
+      }
       const tok = e.token.tokenType === EOF ? lexed.tokens[lexed.tokens.length - 1] : e.token;
-      const where = afterPrevious ? endOf(previous) : tok === undefined ? { line: 1, col: 1 } : e.token.tokenType === EOF ? endOf(tok) : at(tok);
+      const where = wantSemi ? endOf(previous) : tok === undefined ? { line: 1, col: 1 } : e.token.tokenType === EOF ? endOf(tok) : at(tok);
       return { problem: { message: e.message, at: where } };
     }
     return { program };
