@@ -33,10 +33,7 @@ export function evaluateQasm(e: Expr, env: ReadonlyMap<string, number>, version:
         return { value: x.value };
       case 'id': {
         const v = env.get(x.name) ?? constants.get(x.name);
-        if (v !== undefined) return { value: v };
-        const known = [...env.keys(), ...constants.keys()];
-        const near = suggest(x.name, known);
-        return fail(`unknown name '${x.name}' in an angle${near !== undefined ? `; did you mean '${near}'?` : ` (known: ${known.join(', ')})`}`, x.at);
+        return v !== undefined ? { value: v } : { problem: unknownNameIn(x, [...env.keys()], version)! };
       }
       case 'neg': {
         const a = ev(x.arg);
@@ -51,10 +48,7 @@ export function evaluateQasm(e: Expr, env: ReadonlyMap<string, number>, version:
         return Number.isFinite(v) ? { value: v } : fail(`the result of '${x.op === '^' ? (version === 3 ? '**' : '^') : x.op}' is not a finite number`, x.at);
       }
       case 'call': {
-        if (!EXPRESSION_FUNCTIONS.includes(x.fn)) {
-          const near = suggest(x.fn, EXPRESSION_FUNCTIONS);
-          return fail(`unknown function '${x.fn}'${near !== undefined ? `; did you mean '${near}'?` : ''} (fray reads ${EXPRESSION_FUNCTIONS.join(', ')})`, x.at);
-        }
+        if (!EXPRESSION_FUNCTIONS.includes(x.fn)) return { problem: unknownNameIn({ ...x, arg: { k: 'num', value: 0, at: x.at } }, [], version)! };
         const a = ev(x.arg);
         if ('problem' in a) return a;
         const f = { sin: Math.sin, cos: Math.cos, tan: Math.tan, exp: Math.exp, ln: Math.log, sqrt: Math.sqrt }[x.fn as 'sin'];
@@ -64,6 +58,32 @@ export function evaluateQasm(e: Expr, env: ReadonlyMap<string, number>, version:
     }
   };
   return ev(e);
+}
+
+/** The first name or function an expression uses that is neither in `names` nor a constant or function of the language. */
+export function unknownNameIn(e: Expr, names: readonly string[], version: 2 | 3): ExprProblem | undefined {
+  const constants = qasmConstants(version);
+  switch (e.k) {
+    case 'num':
+      return undefined;
+    case 'id': {
+      if (names.includes(e.name) || constants.has(e.name)) return undefined;
+      const known = [...names, ...constants.keys()];
+      const near = suggest(e.name, known);
+      return { message: `unknown name '${e.name}' in an angle${near !== undefined ? `; did you mean '${near}'?` : ` (known: ${known.join(', ')})`}`, at: e.at };
+    }
+    case 'neg':
+      return unknownNameIn(e.arg, names, version);
+    case 'bin':
+      return unknownNameIn(e.l, names, version) ?? unknownNameIn(e.r, names, version);
+    case 'call': {
+      if (!EXPRESSION_FUNCTIONS.includes(e.fn)) {
+        const near = suggest(e.fn, EXPRESSION_FUNCTIONS);
+        return { message: `unknown function '${e.fn}'${near !== undefined ? `; did you mean '${near}'?` : ''} (fray reads ${EXPRESSION_FUNCTIONS.join(', ')})`, at: e.at };
+      }
+      return unknownNameIn(e.arg, names, version);
+    }
+  }
 }
 
 /** Binding strength for printing: sums 1, products 2, unary minus 3, powers 4, atoms 5. */

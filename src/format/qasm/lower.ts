@@ -23,7 +23,7 @@ import { fileStart, type ProblemList, type SourcePosition } from '../problem.js'
 import { MAX_DECLARED_QUBITS } from '../register.js';
 import { STEP_ACTIONS, STEP_MODIFIERS } from '../stepShape.js';
 import type { At, Expr, GateCall, Modifier, Operand, Program, Statement } from './ast.js';
-import { evaluateQasm, frayParamName, toFrayText } from './expression.js';
+import { evaluateQasm, frayParamName, toFrayText, unknownNameIn } from './expression.js';
 import { frayGateOf, HEADER, QELIB1_GATES, standardGates, STDGATES, UNSUPPORTED_STANDARD_GATES } from './library.js';
 import { CONTROLLED, inverseOf } from './modifiers.js';
 import { parseQasm } from './parser.js';
@@ -413,7 +413,8 @@ class Lowering {
       const apps = this.modified(g, angles, s.modifiers, targets, numberOps);
       if (apps === undefined) return;
       for (const app of apps) {
-        const unitary = this.unitaryOf(app.name, app.angles);
+        const unitary = this.unitaryOf(app.name, app.angles, s.at);
+        if (unitary === undefined) return;
         const op: GateOperation = { step: index, at: this.pos(s.at), kind: 'gate', name: app.name, qubits: app.targets, unitary, ...(app.angles.length > 0 ? { angles: app.angles } : {}) };
         this.ops.push(op);
       }
@@ -446,12 +447,15 @@ class Lowering {
     return true;
   }
 
-  /** The unitary of a fray gate (built-in or program-defined composite) at these angles. */
-  private unitaryOf(name: string, angles: readonly number[]): CMatrix {
+  /** The unitary of a fray gate (built-in or program-defined composite) at these angles; a body angle that does not evaluate (1/a at a = 0) is a problem at the call. */
+  private unitaryOf(name: string, angles: readonly number[], at: At): CMatrix | undefined {
     const b = builtinGate(name);
     if (b !== undefined) return b.matrix(angles);
     const u = definitionUnitary(this.definitions.get(name)!, angles, this.definitions);
-    if ('error' in u) throw new Error(`internal: ${u.error}`);
+    if ('error' in u) {
+      this.error(at, 'qasm-angle', `${u.error} (with the angles of this call)`);
+      return undefined;
+    }
     return u.matrix;
   }
 
@@ -617,8 +621,7 @@ class Lowering {
         this.error(st.operands[0]!.at, 'qasm-repeated-qubit', `${st.name} names one qubit twice in one application; each qubit may appear once`);
         return;
       }
-      const env = new Map(params.map((p) => [p, 1] as const));
-      for (const e of st.args) if (!this.checkNames(e, env)) return;
+      for (const e of st.args) if (!this.checkNames(e, params)) return;
       const apps = this.modified(g, st.args.map(toFrayText), st.modifiers, targets, textOps);
       if (apps === undefined) return;
       for (const a of apps) steps.push({ gate: a.name, targets: a.targets, angles: a.angles });
@@ -640,13 +643,10 @@ class Lowering {
   }
 
   /** Every name in a gate body's angle is a parameter or a constant, every function known. */
-  private checkNames(e: Expr, env: ReadonlyMap<string, number>): boolean {
-    const r = evaluateQasm(e, env, this.version);
-    if ('problem' in r && !/finite/.test(r.problem.message)) {
-      this.error(r.problem.at, 'qasm-angle', r.problem.message);
-      return false;
-    }
-    return true;
+  private checkNames(e: Expr, params: readonly string[]): boolean {
+    const bad = unknownNameIn(e, params, this.version);
+    if (bad !== undefined) this.error(bad.at, 'qasm-angle', bad.message);
+    return bad === undefined;
   }
 }
 

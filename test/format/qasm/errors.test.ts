@@ -33,6 +33,8 @@ const cases: { name: string; text: string; where: string; says: string }[] = [
   { name: 'no qubits', text: H2 + 'creg c[1];\n', where: 'p.qasm:1:10', says: 'declares no qubits' },
   { name: 'too many qubits', text: H2 + 'qreg q[30];\n', where: 'p.qasm:3:8', says: 'at most 24' },
   // gates
+  { name: 'a gate body angle that does not evaluate for this call', text: H2 + 'gate g(a) x { rz(1/a) x; }\nqreg q[1];\ng(0) q[0];\n', where: 'p.qasm:5:1', says: "gate 'g', step rz: division by zero" },
+  { name: 'an unknown name in a gate body', text: H2 + 'gate g(alpha) x { rz(alpah) x; }\n', where: 'p.qasm:3:22', says: "did you mean 'alpha'?" },
   { name: 'opaque gate', text: H2 + 'opaque magic a;\nqreg q[1];\n', where: 'p.qasm:3:1', says: "opaque gate 'magic' has no definition, so fray cannot simulate it" },
   { name: 'standard gate redefined', text: H2 + 'gate h a { x a; }\n', where: 'p.qasm:3:6', says: "'h' is a standard gate of qelib1.inc" },
   { name: 'definition clashing with a fray built-in', text: 'OPENQASM 2.0;\ngate iswap a, b { CX a, b; }\n', where: 'p.qasm:2:6', says: "differently from fray's built-in 'iswap'" },
