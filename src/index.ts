@@ -12,7 +12,7 @@ export type { LoadedCircuit, LoadOptions } from './api/loadCircuit.js';
 export { InputError, ProblemList, formatProblem } from './format/problem.js';
 export type { Problem, SourcePosition } from './format/problem.js';
 export type { Circuit, Operation, Register, GateDefinition } from './circuit/circuit.js';
-export { readQasm, isQasmPath, writeQasm } from './format/qasm/index.js';
+export { readQasm, isQasmPath, writeQasm, loadQasmToolkit } from './format/qasm/index.js';
 export type { QasmWriteOptions } from './format/qasm/index.js';
 export { writeCircuitYaml } from './format/writeCircuit.js';
 export { convertToYaml, exportQasm } from './api/convert.js';

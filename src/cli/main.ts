@@ -5,6 +5,7 @@ import { channelCommand, type ChannelCommandOptions } from './channelCommand.js'
 import { makeStyle, wantColor } from './style.js';
 import { renderProblems } from './problems.js';
 import { addFormatCommands } from './formatCommands.js';
+import { isQasmPath, loadQasmToolkit } from '../format/qasm/index.js';
 
 /** Exit statuses of the fray command (the contract's): success, internal error, input error. */
 export const EXIT = { ok: 0, internal: 1, input: 2 } as const;
@@ -24,6 +25,8 @@ const VERSION = '0.1.0';
 export async function main(argv: readonly string[], io: CliIO = { stdout: process.stdout, stderr: process.stderr }): Promise<number> {
   const program = buildProgram(io);
   try {
+    // the OpenQASM parser toolkit loads only for commands given a .qasm file (see src/format/qasm/toolkit.ts)
+    if (argv.some(isQasmPath)) await loadQasmToolkit();
     await program.parseAsync([...argv], { from: 'user' });
     return EXIT.ok;
   } catch (e) {

@@ -4,6 +4,7 @@
  */
 export { readQasm, QASM_TIME_UNITS, SAME_GATE_TOLERANCE } from './lower.js';
 export { parseQasm } from './parser.js';
+export { loadQasmToolkit } from './toolkit.js';
 export type { Program as QasmProgram } from './ast.js';
 export { HEADER, QELIB1_GATES, STDGATES, QASM_ALIASES } from './library.js';
 export { writeQasm, EXPORT_DEFINITIONS } from './write.js';

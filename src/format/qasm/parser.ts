@@ -17,9 +17,10 @@
  * Syntax errors stop the parse at the first one (one located message); constructs of
  * OpenQASM 3 that fray does not simulate are caught before parsing by ./unsupported.ts.
  */
-import { EmbeddedActionsParser, EOF, type IToken, type TokenType, type IParserErrorMessageProvider } from 'chevrotain';
+import type { IToken, TokenType, IParserErrorMessageProvider } from 'chevrotain';
 import type { At, Condition, Expr, GateCall, Modifier, Operand, Program, Statement } from './ast.js';
-import * as T from './tokens.js';
+import { qasmTokens, type QasmTokens } from './tokens.js';
+import { qasmToolkit, type Toolkit } from './toolkit.js';
 import { findUnsupported } from './unsupported.js';
 
 /** A syntax error: the message and where it is. */
@@ -28,6 +29,9 @@ export interface SyntaxProblem {
   readonly at: At;
 }
 
+/** Builds the grammar with the toolkit and the tokens (once, on first use: see parseQasm). */
+function buildParser(c: Toolkit, T: QasmTokens) {
+const EOF = c.EOF;
 const show = (t: IToken): string => (t.tokenType === EOF ? 'the end of the file' : `'${t.image}'`);
 const names = (ts: readonly TokenType[]): string => [...new Set(ts.map((t) => (typeof t.LABEL === 'string' ? t.LABEL : t.name)))].join(' or ');
 
@@ -43,9 +47,7 @@ const messages: IParserErrorMessageProvider = {
   buildEarlyExitMessage: ({ expectedIterationPaths, actual }) => `expected ${names(expectedIterationPaths.map((p) => p[0]!))} but found ${show(actual[0]!)}`,
 };
 
-const at = (t: IToken): At => ({ line: t.startLine ?? 0, col: t.startColumn ?? 0 });
-
-class QasmParser extends EmbeddedActionsParser {
+class QasmParser extends c.EmbeddedActionsParser {
   constructor() {
     super(T.ALL_TOKENS, { maxLookahead: 3, errorMessageProvider: messages, recoveryEnabled: false });
     this.performSelfAnalysis();
@@ -424,6 +426,11 @@ class QasmParser extends EmbeddedActionsParser {
   });
 }
 
+return new QasmParser();
+}
+
+const at = (t: IToken): At => ({ line: t.startLine ?? 0, col: t.startColumn ?? 0 });
+
 /** Stops the parse with a located message (an unsupported version, for instance). */
 export class QasmStop extends Error {
   constructor(
@@ -434,10 +441,12 @@ export class QasmStop extends Error {
   }
 }
 
-let shared: QasmParser | undefined;
+let shared: ReturnType<typeof buildParser> | undefined;
 
 /** Parses OpenQASM text into its syntax tree, or returns the first syntax problem. */
 export function parseQasm(text: string): { program: Program } | { problem: SyntaxProblem } {
+  const T = qasmTokens();
+  const EOF = qasmToolkit().EOF;
   const lexed = T.qasmLexer.tokenize(text);
   if (lexed.errors.length > 0) {
     const e = lexed.errors[0]!;
@@ -446,7 +455,7 @@ export function parseQasm(text: string): { program: Program } | { problem: Synta
   }
   const unsupported = findUnsupported(lexed.tokens);
   if (unsupported !== undefined) return { problem: unsupported };
-  const parser = (shared ??= new QasmParser());
+  const parser = (shared ??= buildParser(qasmToolkit(), T));
   parser.input = lexed.tokens;
   try {
     const program = parser.program();
