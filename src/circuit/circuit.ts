@@ -22,6 +22,8 @@ export interface Circuit {
   readonly gateArity: ReadonlyMap<string, number>;
   /** The custom gates' definitions by name, in the order written (for writing the circuit out again). */
   readonly definitions?: ReadonlyMap<string, GateDefinition>;
+  /** Names of the composite gates (custom gates defined by `steps`). */
+  readonly compositeGates: ReadonlySet<string>;
   /** Pauli strings to report, qubit 0 leftmost. */
   readonly observe: readonly Loc<string>[];
   /** The `device:` path as written (relative to the circuit file), if any. */
@@ -100,6 +102,16 @@ export interface GateOperation extends OperationBase {
   /** The evaluated angles (radians, in the gate's parameter order) when the gate takes any. */
   readonly angles?: readonly number[];
   readonly noise?: NoiseOverride;
+  /** Composite gates: the parts in order, on circuit qubits (used when the profile says `split: true`). */
+  readonly parts?: readonly GatePart[];
+}
+
+/** One part of a composite application, on circuit qubits; itself composite when `parts` is present. */
+export interface GatePart {
+  readonly name: string;
+  readonly qubits: readonly number[];
+  readonly unitary: CMatrix;
+  readonly parts?: readonly GatePart[];
 }
 
 /** An explicit wait of `duration` ns on one qubit (it decays as an idle qubit). */

@@ -15,7 +15,7 @@
  * are refused with a located message; `measurementMode` is the one place that decides.
  */
 import type { Circuit, CompositeGateDefinition, CompositeStep, GateDefinition, GateOperation, Operation } from '../../circuit/circuit.js';
-import { definitionUnitary } from '../../circuit/definitions.js';
+import { definitionParts, definitionUnitary } from '../../circuit/definitions.js';
 import { BUILTIN_GATES, builtinGate } from '../../circuit/gates.js';
 import { suggest } from '../../circuit/suggest.js';
 import { fromRows, mul, adjoint, type CMatrix } from '../../linalg/cmatrix.js';
@@ -130,6 +130,7 @@ class Lowering {
       channels: new Map(),
       gateArity,
       definitions: this.definitions,
+      compositeGates: new Set(this.definitions.keys()),
       observe: [],
       device: null,
       inlineNoise: null,
@@ -415,7 +416,10 @@ class Lowering {
       for (const app of apps) {
         const unitary = this.unitaryOf(app.name, app.angles, s.at);
         if (unitary === undefined) return;
-        const op: GateOperation = { step: index, at: this.pos(s.at), kind: 'gate', name: app.name, qubits: app.targets, unitary, ...(app.angles.length > 0 ? { angles: app.angles } : {}) };
+        const def = this.definitions.get(app.name);
+        const parts = def?.kind === 'composite' ? definitionParts(def, app.angles, this.definitions, app.targets) : undefined;
+        if (parts !== undefined && 'error' in parts) throw new Error(`internal: ${parts.error}`); // the unitary above evaluated the same steps
+        const op: GateOperation = { step: index, at: this.pos(s.at), kind: 'gate', name: app.name, qubits: app.targets, unitary, ...(app.angles.length > 0 ? { angles: app.angles } : {}), ...(parts !== undefined ? { parts } : {}) };
         this.ops.push(op);
       }
     }

@@ -68,6 +68,16 @@ describe('OpenQASM 2.0 constructs', () => {
     expect(loaded.profile.gateEntry('rot', [0, 1]).duration).toBe(400);
   });
 
+  it('a defined gate split into its parts by the profile (split: true) equals its YAML twin to 1e-12', () => {
+    const qasm = 'OPENQASM 2.0;\ninclude "qelib1.inc";\ngate inner(a) x { rz(a) x; h x; }\ngate rot(a) x, y { inner(a/2) x; cx x, y; }\nqreg q[2];\nh q[1];\nrot(0.3) q[0], q[1];\n';
+    const yaml = 'qubits: ["q[0]", "q[1]"]\ngates:\n  inner:\n    qubits: 1\n    params: [a]\n    steps: [ {rz: 0, angle: a}, {h: 0} ]\n  rot:\n    qubits: 2\n    params: [a]\n    steps: [ {inner: 0, angle: a/2}, {cx: [0, 1]} ]\nsteps:\n  - h: "q[1]"\n  - rot: ["q[0]", "q[1]"]\n    angle: 0.3\n';
+    const device = DEVICE + '  rot: { split: true }\n  inner: { split: true }\n';
+    const a = runProgram(qasm, 'p.qasm', device);
+    const b = runProgram(yaml, 'p.yaml', device);
+    expect(figureDistance(a.result, b.result)).toBeLessThan(TWIN);
+    expect(a.result.duration_ns).toBe(2 * 50 + 300); // rz and h on q[0] (beside h on q[1]), then cx: the parts' own durations
+  });
+
   it('a program equals its YAML twin, every figure to 1e-12 with the same profile', () => {
     const qasm = `OPENQASM 2.0;
 include "qelib1.inc";
