@@ -57,6 +57,8 @@ export interface Condition {
   readonly operand: Operand;
   /** The compared integer; for the bare forms 1 (`c[i]`) or 0 (`!c[i]`). */
   readonly value: number;
+  /** Whether the condition compares with `==` (false for the bare forms). */
+  readonly compared: boolean;
   readonly valueAt: At;
 }
 

@@ -231,7 +231,7 @@ class QasmParser extends c.EmbeddedActionsParser {
         ALT: (): Condition => {
           const bang = this.CONSUME(T.Bang);
           const operand = this.SUBRULE(this.operand);
-          return { operand, value: 0, valueAt: at(bang) };
+          return { operand, value: 0, valueAt: at(bang), compared: false };
         },
       },
       {
@@ -239,13 +239,15 @@ class QasmParser extends c.EmbeddedActionsParser {
           const operand = this.SUBRULE2(this.operand);
           let value = 1;
           let valueAt = operand.at;
+          let compared = false;
           this.OPTION(() => {
             this.CONSUME(T.EqEq);
             const v = this.CONSUME(T.NumberLit);
             value = Number(v.image);
             valueAt = at(v);
+            compared = true;
           });
-          return { operand, value, valueAt };
+          return { operand, value, valueAt, compared };
         },
       },
     ]);
