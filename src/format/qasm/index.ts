@@ -2,7 +2,7 @@
  * OpenQASM 2.0 and 3 as a circuit format: reading a program into fray's typed circuit
  * (the same one the YAML reader produces) and writing a circuit back as a program.
  */
-export { readQasm, QASM_TIME_UNITS, SAME_GATE_TOLERANCE } from './lower.js';
+export { readQasm, lowerQasm, QASM_TIME_UNITS, SAME_GATE_TOLERANCE } from './lower.js';
 export { parseQasm } from './parser.js';
 export { loadQasmToolkit } from './toolkit.js';
 export type { Program as QasmProgram } from './ast.js';

@@ -72,7 +72,12 @@ export function readQasm(text: string, file: string, problems: ProblemList): Cir
     problems.error({ file, ...parsed.problem.at }, 'qasm-syntax', parsed.problem.message);
     return undefined;
   }
-  return new Lowering(parsed.program, file, problems).run();
+  return lowerQasm(parsed.program, file, problems);
+}
+
+/** A parsed program (./parser.ts) as a typed circuit; problems (located in `file`) are collected in `problems`. */
+export function lowerQasm(program: Program, file: string, problems: ProblemList): Circuit | undefined {
+  return new Lowering(program, file, problems).run();
 }
 
 class Lowering {
@@ -137,6 +142,7 @@ class Lowering {
       operations: this.ops,
       stepsAt: fileStart(this.file),
       qubitsAt: this.pos(at),
+      bits: null, // terminal measurement only (format version 1)
     };
   }
 
