@@ -3,10 +3,11 @@
  * same circuit: qubit labels, custom gates as written (composites with their steps, matrix
  * gates with their entries), and one step per source statement (a statement that applied
  * one gate to several qubits stays one step with a list of targets). Angles are written
- * exactly (src/format/angleText.ts). Noise written on steps is not carried over: this is
- * for circuits read from formats without noise, such as OpenQASM.
+ * exactly (src/format/angleText.ts). In record mode the record's bits are written as
+ * `bits:`, measurements with `into:` and conditions with `if:`. Noise written on steps is not
+ * carried over: this is for circuits read from formats without noise, such as OpenQASM.
  */
-import type { Circuit, GateDefinition, Operation } from '../circuit/circuit.js';
+import type { Circuit, Condition, GateDefinition, Operation } from '../circuit/circuit.js';
 import type { CMatrix } from '../linalg/cmatrix.js';
 import { angleText } from './angleText.js';
 
@@ -53,6 +54,10 @@ export function writeCircuitYaml(circuit: Circuit, options: YamlWriteOptions): s
       }
     }
   }
+  const bits = circuit.bits;
+  if (bits !== null) out.push(`bits: [${bits.map(str).join(', ')}]`);
+  const ifLine = (c: Condition | undefined): string[] =>
+    c === undefined || bits === null ? [] : [`    if: { ${c.terms.map((t) => `${JSON.stringify(bits[t.bit]!)}: ${t.value}`).join(', ')} }`];
   out.push('steps:');
   for (const group of groupSteps(circuit.operations)) {
     const op = group[0]!;
@@ -65,6 +70,7 @@ export function writeCircuitYaml(circuit: Circuit, options: YamlWriteOptions): s
         const angles = op.angles ?? [];
         if (angles.length === 1) out.push(`    angle: ${angle(angles[0]!)}`);
         else if (angles.length > 1) out.push(`    angles: [${angles.map(angle).join(', ')}]`);
+        out.push(...ifLine(op.condition));
         break;
       }
       case 'idle':
@@ -74,8 +80,12 @@ export function writeCircuitYaml(circuit: Circuit, options: YamlWriteOptions): s
         out.push(`  - barrier: [${op.qubits.map(q).join(', ')}]`);
         break;
       case 'measure':
+        out.push(`  - measure: ${list(targets)}`);
+        if (bits !== null) out.push(`    into: [${group.map((o) => (o.kind === 'measure' ? JSON.stringify(bits[o.bit!]!) : '')).join(', ')}]`);
+        break;
       case 'reset':
-        out.push(`  - ${op.kind}: ${list(targets)}`);
+        out.push(`  - reset: ${list(targets)}`);
+        out.push(...ifLine(op.condition));
         break;
       case 'channel':
         break; // noise is not carried over (see the module comment)
@@ -97,12 +107,16 @@ function groupSteps(ops: readonly Operation[]): Operation[][] {
       op.kind !== 'barrier' &&
       (op.kind !== 'gate' || (head.kind === 'gate' && head.name === op.name && sameAngles(head.angles, op.angles))) &&
       (op.kind !== 'idle' || (head.kind === 'idle' && head.duration === op.duration)) &&
+      sameCondition(head, op) &&
       !last!.some((o) => o.qubits.some((x) => op.qubits.includes(x)));
     if (same) last!.push(op);
     else groups.push([op]);
   }
   return groups;
 }
+
+const conditionOf = (op: Operation): Condition | undefined => (op.kind === 'gate' || op.kind === 'reset' || op.kind === 'channel' ? op.condition : undefined);
+const sameCondition = (a: Operation, b: Operation): boolean => JSON.stringify(conditionOf(a)?.terms) === JSON.stringify(conditionOf(b)?.terms);
 
 const sameAngles = (a: readonly number[] | undefined, b: readonly number[] | undefined): boolean =>
   (a ?? []).length === (b ?? []).length && (a ?? []).every((x, i) => x === b![i]);

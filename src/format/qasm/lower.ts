@@ -6,15 +6,17 @@
  * for noise and scheduling, with their own profile entry); standard gates become fray's
  * built-ins (./library.ts); modifiers are resolved by ./modifiers.ts.
  *
- * Measurement (this version of fray): every `measure` must be terminal — nothing may act
- * on the qubit afterwards — and becomes fray's terminal measurement. The outcome order is
- * fray's (measured qubits in ascending index, see src/api/simulate.ts measuredQubits); it
- * equals the classical-bit order (register declaration order, then index) whenever bits
- * are assigned to qubits in increasing order, and a warning says so when they are not.
- * `if` and measurement before other operations need mid-circuit measurement support and
- * are refused with a located message; `measurementMode` is the one place that decides.
+ * Measurement: a program whose measurements are all terminal (nothing acts on a measured
+ * qubit afterwards, no bit is written twice, no `if`) is a version-1 circuit with fray's
+ * terminal measurement; its outcome order is fray's (measured qubits in ascending index,
+ * see src/api/simulate.ts measuredQubits), which equals the classical-bit order whenever bits
+ * are assigned to qubits in increasing order (a warning says so when they are not). Any
+ * other program is in record mode (docs/format.md, mid-circuit measurement): every
+ * `measure` writes its bit, `if` becomes a condition on the bits, and the record's order is
+ * the bit registers' declaration order, then index (only bits some measurement writes).
+ * `finishRecord` is the one place that decides.
  */
-import type { Circuit, CompositeGateDefinition, CompositeStep, GateDefinition, GateOperation, Operation } from '../../circuit/circuit.js';
+import type { Circuit, CompositeGateDefinition, CompositeStep, Condition, ConditionTerm, GateDefinition, GateOperation, Operation } from '../../circuit/circuit.js';
 import { definitionParts, definitionUnitary } from '../../circuit/definitions.js';
 import { BUILTIN_GATES, builtinGate } from '../../circuit/gates.js';
 import { suggest } from '../../circuit/suggest.js';
@@ -98,6 +100,10 @@ class Lowering {
   /** (bit, qubit) of every measurement with a bit, in program order. */
   private readonly records: { bit: number; qubit: number; at: At }[] = [];
   private firstQregAt: At | undefined;
+  /** The first thing that needs record mode (an operation after a measurement, a bit written twice, an `if`). */
+  private needsRecord: { at: At; why: string } | undefined;
+  /** Measurements that store no bit (`measure q;`): an input error in record mode. */
+  private readonly plainMeasures: At[] = [];
 
   constructor(
     private readonly program: Program,
@@ -121,8 +127,8 @@ class Lowering {
     if (this.labels.length === 0 && this.problems.ok) {
       this.error(this.program.versionAt, 'no-qubits', `the program declares no qubits; declare them with ${this.version === 2 ? "'qreg q[n];'" : "'qubit[n] q;'"}`);
     }
-    this.checkRecordOrder();
-    if (!this.problems.ok) return undefined;
+    const record = this.finishRecord();
+    if (!this.problems.ok || record === undefined) return undefined;
     const gateArity = new Map<string, number>();
     for (const [name, g] of BUILTIN_GATES) if (name === g.name) gateArity.set(name, g.qubits);
     for (const d of this.definitions.values()) gateArity.set(d.name, d.qubits);
@@ -139,10 +145,10 @@ class Lowering {
       observe: [],
       device: null,
       inlineNoise: null,
-      operations: this.ops,
+      operations: record.operations,
       stepsAt: fileStart(this.file),
       qubitsAt: this.pos(at),
-      bits: null, // terminal measurement only (format version 1)
+      bits: record.bits,
     };
   }
 
@@ -176,7 +182,7 @@ class Lowering {
     this.firstQregAt = used.get(ks[0]!);
   }
 
-  private statement(s: Statement, index: number): void {
+  private statement(s: Statement, index: number, cond?: Condition): void {
     const v3only = (what: string, at: At): boolean => {
       if (this.version === 3) return false;
       this.error(at, 'qasm-version', `${what} is OpenQASM 3; this program declares 'OPENQASM 2.0;'`);
@@ -195,7 +201,7 @@ class Lowering {
         return this.error(s.at, 'qasm-opaque', `opaque gate '${s.name}' has no definition, so fray cannot simulate it; give it a 'gate' definition`);
       case 'call':
         if (s.modifiers.length > 0 && v3only('a gate modifier', s.modifiers[0]!.at)) return;
-        return this.call(s, index);
+        return this.call(s, index, cond);
       case 'gphase':
         // A global phase multiplies the whole state: it cannot be observed, so it adds nothing.
         v3only("'gphase'", s.at);
@@ -204,8 +210,8 @@ class Lowering {
         return this.measure(s.qubit, s.bit, s.at, index);
       case 'reset':
         for (const q of this.qubitsOf(s.operands)) {
-          if (this.afterMeasure(q, s.at, 'reset')) return;
-          this.ops.push({ step: index, at: this.pos(s.at), kind: 'reset', qubits: [q] });
+          this.afterMeasure(q, s.at);
+          this.ops.push({ step: index, at: this.pos(s.at), kind: 'reset', qubits: [q], ...(cond !== undefined ? { condition: cond } : {}) });
         }
         return;
       case 'barrier': {
@@ -217,17 +223,72 @@ class Lowering {
         if (v3only("'delay'", s.at)) return;
         return this.delay(s.duration, s.operands, s.at, index);
       case 'if':
-        return this.measurementMode('if', s.at);
+        return this.ifStatement(s, index, cond);
     }
   }
 
   /**
-   * What this version does with constructs that need measurement results during the
-   * circuit: it refuses them, naming the construct.
+   * `if (c == n)` → every bit c[i] must read bit i of n (c[0] least significant, as OpenQASM
+   * 2.0 defines it); `if (c[i] == v)`, `if (c[i])`, `if (!c[i])` → one bit. A bit no earlier
+   * measurement writes reads 0: a term asking 0 of it always holds and is left out, one
+   * asking 1 can never hold and is an error. Nested `if`s (OpenQASM 3) join their terms.
    */
-  private measurementMode(what: 'if' | 'mid-circuit', at: At, detail = ''): void {
-    const head = what === 'if' ? "'if' conditions on measured bits" : detail;
-    this.error(at, 'qasm-mid-circuit', `${head} need mid-circuit measurement support, which this version of fray does not have; measurements must come last on each qubit`);
+  private ifStatement(s: Extract<Statement, { k: 'if' }>, index: number, outer: Condition | undefined): void {
+    const c = s.condition;
+    this.needsRecord ??= { at: s.at, why: "'if'" };
+    const bits = this.element(c.operand, 'creg');
+    if (bits === undefined) return;
+    const whole = c.operand.index === null && bits.length > 1;
+    if (this.version === 2 && c.operand.index !== null) {
+      this.error(c.operand.at, 'qasm-condition', `OpenQASM 2.0 compares a whole bit register with an integer ('if (${c.operand.name} == n)'); single bits are OpenQASM 3`);
+      return;
+    }
+    if (!Number.isInteger(c.value) || c.value < 0 || c.value >= 2 ** bits.length) {
+      const range = bits.length === 1 ? '0 or 1' : `a whole number from 0 to ${2 ** bits.length - 1}`;
+      this.error(c.valueAt, 'qasm-condition', `${whole ? `register '${c.operand.name}'` : `bit ${this.bitNames[bits[0]!]}`} can hold ${range}, so '== ${c.value}' can never hold`);
+      return;
+    }
+    const terms: ConditionTerm[] = [...(outer?.terms ?? [])];
+    for (let i = 0; i < bits.length; i++) {
+      const b = bits[i]!;
+      const value = ((c.value >> i) & 1) as 0 | 1;
+      if (!this.bitWrittenAt.has(b)) {
+        if (value === 0) continue;
+        this.error(c.valueAt, 'qasm-condition', `bit ${this.bitNames[b]} is not written by any measurement before this 'if', so it reads 0 and the condition can never hold`);
+        return;
+      }
+      terms.push({ bit: b, value });
+    }
+    const condition: Condition | undefined = terms.length > 0 ? { terms, at: this.pos(s.at) } : undefined;
+    for (const st of s.body) {
+      if (st.k === 'call' || st.k === 'reset' || st.k === 'if' || st.k === 'barrier' || st.k === 'gphase') this.statement(st, index, condition);
+      else this.error(st.at, 'qasm-condition', `fray conditions gates and resets on bits; a conditional '${st.k}' is not supported`);
+    }
+  }
+
+  /**
+   * Version 1 (terminal measurement) when nothing needs the record, record mode otherwise:
+   * bits renumbered to the record's order (declaration order, then index, of written bits).
+   */
+  private finishRecord(): { operations: Operation[]; bits: string[] | null } | undefined {
+    if (this.needsRecord === undefined) {
+      this.checkRecordOrder();
+      // terminal measurement: no bits
+      return { operations: this.ops.map((op) => (op.kind === 'measure' && op.bit !== undefined ? { step: op.step, at: op.at, kind: 'measure', qubits: op.qubits } : op)), bits: null };
+    }
+    for (const at of this.plainMeasures) {
+      this.error(at, 'qasm-measure', `this measurement stores no bit, but the program uses mid-circuit measurement (${this.needsRecord.why} on line ${this.needsRecord.at.line}); write 'c[i] = measure q[j];' or 'measure q[j] -> c[i];'`);
+    }
+    if (this.plainMeasures.length > 0) return undefined;
+    const written = [...this.bitWrittenAt.keys()].sort((a, b) => a - b);
+    const index = new Map(written.map((b, i) => [b, i] as const));
+    const remap = (c: Condition): Condition => ({ at: c.at, terms: c.terms.map((t) => ({ bit: index.get(t.bit)!, value: t.value })) });
+    const operations = this.ops.map((op): Operation => {
+      if (op.kind === 'measure') return { ...op, bit: index.get(op.bit!)! };
+      if ((op.kind === 'gate' || op.kind === 'reset' || op.kind === 'channel') && op.condition !== undefined) return { ...op, condition: remap(op.condition) };
+      return op;
+    });
+    return { operations, bits: written.map((b) => this.bitNames[b]!) };
   }
 
   private include(path: string, at: At): void {
@@ -397,7 +458,7 @@ class Lowering {
     return { name: invName, angles: [...angles] };
   }
 
-  private call(s: GateCall, index: number): void {
+  private call(s: GateCall, index: number, cond?: Condition): void {
     const g = this.callable(s.name, s.nameAt);
     if (g === undefined) return;
     const ctrlCount = this.controlCount(s.modifiers);
@@ -416,7 +477,7 @@ class Lowering {
         this.error(s.operands[0]!.at, 'qasm-repeated-qubit', `${s.name} names qubit ${this.labels[targets.find((q, i) => targets.indexOf(q) !== i)!]} twice in one application; each qubit may appear once`);
         return;
       }
-      if (targets.some((q) => this.afterMeasure(q, s.at, s.name))) return;
+      for (const q of targets) this.afterMeasure(q, s.at);
       const apps = this.modified(g, angles, s.modifiers, targets, numberOps);
       if (apps === undefined) return;
       for (const app of apps) {
@@ -425,7 +486,7 @@ class Lowering {
         const def = this.definitions.get(app.name);
         const parts = def?.kind === 'composite' ? definitionParts(def, app.angles, this.definitions, app.targets) : undefined;
         if (parts !== undefined && 'error' in parts) throw new Error(`internal: ${parts.error}`); // the unitary above evaluated the same steps
-        const op: GateOperation = { step: index, at: this.pos(s.at), kind: 'gate', name: app.name, qubits: app.targets, unitary, ...(app.angles.length > 0 ? { angles: app.angles } : {}), ...(parts !== undefined ? { parts } : {}) };
+        const op: GateOperation = { step: index, at: this.pos(s.at), kind: 'gate', name: app.name, qubits: app.targets, unitary, ...(app.angles.length > 0 ? { angles: app.angles } : {}), ...(parts !== undefined ? { parts } : {}), ...(cond !== undefined ? { condition: cond } : {}) };
         this.ops.push(op);
       }
     }
@@ -520,12 +581,9 @@ class Lowering {
     return Array.from({ length: n }, (_, j) => lists.map((l, i) => (operands[i]!.index === null ? l[j]! : l[0]!)));
   }
 
-  /** Refuses an operation on a qubit after its measurement (terminal measurement). */
-  private afterMeasure(q: number, at: At, what: string): boolean {
-    const m = this.measuredAt.get(q);
-    if (m === undefined) return false;
-    this.measurementMode('mid-circuit', at, `'${what}' on ${this.labels[q]} after its measurement on line ${m.line}: operations after a measurement`);
-    return true;
+  /** Notes an operation on a qubit after its measurement: the program then needs record mode. */
+  private afterMeasure(q: number, at: At): void {
+    if (this.measuredAt.has(q)) this.needsRecord ??= { at, why: `an operation on ${this.labels[q]} after its measurement` };
   }
 
   private measure(qo: Operand, bo: Operand | null, at: At, index: number): void {
@@ -537,19 +595,17 @@ class Lowering {
       return;
     }
     qs.forEach((q, j) => {
-      if (this.afterMeasure(q, at, 'measure')) return;
-      if (bs !== null) {
+      this.afterMeasure(q, at);
+      if (bs === null) this.plainMeasures.push(at);
+      else {
         const b = bs[j]!;
-        const before = this.bitWrittenAt.get(b);
-        if (before !== undefined) {
-          this.measurementMode('mid-circuit', at, `bit ${this.bitNames[b]} is written twice (first on line ${before.line}): several results in one bit`);
-          return;
-        }
+        if (this.bitWrittenAt.has(b)) this.needsRecord ??= { at, why: `bit ${this.bitNames[b]} written twice` };
         this.bitWrittenAt.set(b, at);
         this.records.push({ bit: b, qubit: q, at });
       }
       this.measuredAt.set(q, at);
-      this.ops.push({ step: index, at: this.pos(at), kind: 'measure', qubits: [q] });
+      // the bit is the bit register's own index here; finishRecord renumbers or drops it
+      this.ops.push({ step: index, at: this.pos(at), kind: 'measure', qubits: [q], ...(bs !== null ? { bit: bs[j]! } : {}) });
     });
   }
 

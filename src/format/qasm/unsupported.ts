@@ -41,7 +41,7 @@ export const UNSUPPORTED_WORDS: ReadonlyMap<string, string> = new Map([
   ['defcalgrammar', 'pulse-level calibrations'],
 ]);
 
-const WHAT_FRAY_READS = 'fray reads register declarations, gate definitions and calls, measure, reset, barrier and delay';
+const WHAT_FRAY_READS = 'fray reads register declarations, gate definitions and calls, measure, reset, barrier, delay and if';
 
 /** The first unsupported OpenQASM 3 construct at a statement start, with its message and position. */
 export function findUnsupported(tokens: readonly IToken[]): { message: string; at: At } | undefined {

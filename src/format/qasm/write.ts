@@ -6,11 +6,15 @@
  * a `gate` whose body is U with the ZYZ angles of the matrix (src/circuit/zyz.ts; the global
  * phase is dropped, unobservable). Measured qubits are written into one bit register in
  * fray's outcome order (ascending qubit), so bit k is the k-th character of fray's outcomes.
+ * In record mode the record's bits are declared as bit registers (names `c[i]` grouped into
+ * registers, other names as one-bit registers), measurements write them and conditions become
+ * `if`: OpenQASM 3 tests single bits (nested for several), OpenQASM 2.0 only a whole register
+ * against an integer (a condition on part of a register is an error there).
  * Noise is not part of OpenQASM: noise steps are dropped with a comment and a warning, and
  * the header comment names the profile. Idles become `delay` (OpenQASM 3) or are dropped
  * with a comment and a warning (OpenQASM 2.0 has no timing).
  */
-import type { Circuit, CompositeGateDefinition, GateDefinition, Operation } from '../../circuit/circuit.js';
+import type { Circuit, CompositeGateDefinition, Condition, GateDefinition, Operation } from '../../circuit/circuit.js';
 import { parseExpression } from '../../circuit/expression.js';
 import { builtinGate } from '../../circuit/gates.js';
 import { zyzAngles } from '../../circuit/zyz.js';
@@ -113,9 +117,17 @@ export function writeQasm(circuit: Circuit, options: QasmWriteOptions, problems:
   const ops: string[] = [];
   const measured = [...new Set(circuit.operations.filter((o) => o.kind === 'measure').map((o) => o.qubits[0]!))].sort((a, b) => a - b);
   const bitName = ['c', 'meas', 'bits'].find((n) => !reg.names.has(n))!;
+  const record = circuit.bits === null ? undefined : recordLayout(circuit.bits, v);
+  const written = new Set<number>();
   let dropped = 0;
   for (const op of circuit.operations) {
     const qs = op.qubits.map((q) => reg.ref[q]!).join(', ');
+    const cond = (op.kind === 'gate' || op.kind === 'reset') && op.condition !== undefined && record !== undefined ? conditionPrefix(op.condition, record, written, v) : '';
+    if (cond === undefined) {
+      problems.error(op.at, 'qasm-export', 'OpenQASM 2.0 can only compare a whole bit register with an integer, and this condition reads part of a register; export to OpenQASM 3');
+      return undefined;
+    }
+    const at0 = ops.length;
     switch (op.kind) {
       case 'gate': {
         const b = defs.has(op.name) ? undefined : builtinGate(op.name);
@@ -138,9 +150,12 @@ export function writeQasm(circuit: Circuit, options: QasmWriteOptions, problems:
         if (op.noise !== undefined) dropped++;
         break;
       }
-      case 'measure':
-        ops.push(`${v === 2 ? `measure ${qs} -> ${bitName}[${measured.indexOf(op.qubits[0]!)}]` : `${bitName}[${measured.indexOf(op.qubits[0]!)}] = measure ${qs}`};`);
+      case 'measure': {
+        const bit = record !== undefined && op.bit !== undefined ? record.ref[op.bit]! : `${bitName}[${measured.indexOf(op.qubits[0]!)}]`;
+        if (op.bit !== undefined) written.add(op.bit);
+        ops.push(`${v === 2 ? `measure ${qs} -> ${bit}` : `${bit} = measure ${qs}`};`);
         break;
+      }
       case 'reset':
         ops.push(`reset ${qs};`);
         if (op.noise !== undefined) dropped++;
@@ -155,6 +170,11 @@ export function writeQasm(circuit: Circuit, options: QasmWriteOptions, problems:
           problems.warn(op.at, 'qasm-export-idle', `the idle on ${qs} is dropped: OpenQASM 2.0 has no timing (export to OpenQASM 3 keeps it as a delay)`);
         }
         break;
+      default:
+        break;
+    }
+    if (cond !== '' && ops.length > at0) ops[at0] = `${cond}${ops[at0]}${cond.endsWith('{ ') ? ' }'.repeat(cond.split('{').length - 1) : ''}`;
+    switch (op.kind) {
       case 'channel':
         ops.push(`// noise step on ${qs} dropped: noise is not part of OpenQASM`);
         problems.warn(op.at, 'qasm-export-noise', `the noise step on ${qs} is dropped: noise is not part of OpenQASM`);
@@ -166,9 +186,55 @@ export function writeQasm(circuit: Circuit, options: QasmWriteOptions, problems:
   if (!problems.ok) return undefined;
   lines.push(...body);
   lines.push(...reg.declarations.map((d) => (v === 2 ? `qreg ${d.name}[${d.size}];` : `qubit[${d.size}] ${d.name};`)));
-  if (measured.length > 0) lines.push(v === 2 ? `creg ${bitName}[${measured.length}];` : `bit[${measured.length}] ${bitName};`);
+  if (record !== undefined) lines.push(...record.declarations);
+  else if (measured.length > 0) lines.push(v === 2 ? `creg ${bitName}[${measured.length}];` : `bit[${measured.length}] ${bitName};`);
   lines.push(...ops);
   return lines.join('\n') + '\n';
+}
+
+/** The record's bits as bit registers: declarations, how each bit is named, and each register's bits. */
+interface RecordLayout {
+  readonly declarations: string[];
+  /** Bit index → its reference in the program (`c[2]`, or `m` / `m[0]` for a one-bit register). */
+  readonly ref: string[];
+  /** Bit index → its register's name and its index there. */
+  readonly place: { reg: string; index: number }[];
+  /** Register name → the record bits it holds. */
+  readonly members: Map<string, number[]>;
+}
+
+function recordLayout(bits: readonly string[], v: 2 | 3): RecordLayout {
+  const size = new Map<string, number>();
+  const place = bits.map((b) => {
+    const m = /^([A-Za-z_][A-Za-z0-9_]*)\[(\d+)\]$/.exec(b);
+    const p = m === null ? { reg: b, index: -1 } : { reg: m[1]!, index: Number(m[2]) };
+    size.set(p.reg, Math.max(size.get(p.reg) ?? 0, p.index + 1));
+    return p;
+  });
+  const members = new Map<string, number[]>();
+  place.forEach((p, i) => members.set(p.reg, [...(members.get(p.reg) ?? []), i]));
+  const declarations = [...size].map(([r, n]) => (n === 0 ? (v === 2 ? `creg ${r}[1];` : `bit ${r};`) : v === 2 ? `creg ${r}[${n}];` : `bit[${n}] ${r};`));
+  const ref = place.map((p) => (p.index >= 0 ? `${p.reg}[${p.index}]` : v === 2 ? `${p.reg}[0]` : p.reg));
+  return { declarations, ref, place: place.map((p) => ({ reg: p.reg, index: Math.max(0, p.index) })), members };
+}
+
+/**
+ * The `if (…) ` prefix of a conditioned statement: OpenQASM 3 tests each bit (nested blocks for
+ * several); OpenQASM 2.0 compares one whole register, whose bits written so far must all be in
+ * the condition (unwritten bits read 0). Undefined when 2.0 cannot state it.
+ */
+function conditionPrefix(c: Condition, record: RecordLayout, written: ReadonlySet<number>, v: 2 | 3): string | undefined {
+  if (v === 3) {
+    if (c.terms.length === 1) return `if (${record.ref[c.terms[0]!.bit]} == ${c.terms[0]!.value}) `;
+    return c.terms.map((t) => `if (${record.ref[t.bit]} == ${t.value}) { `).join('');
+  }
+  const regs = new Set(c.terms.map((t) => record.place[t.bit]!.reg));
+  if (regs.size !== 1) return undefined;
+  const reg = [...regs][0]!;
+  const named = new Set(c.terms.map((t) => t.bit));
+  if (record.members.get(reg)!.some((b) => written.has(b) && !named.has(b))) return undefined;
+  const n = c.terms.reduce((acc, t) => acc + t.value * 2 ** record.place[t.bit]!.index, 0);
+  return `if (${reg} == ${n}) `;
 }
 
 /** A composite as a `gate` definition over local qubits q0, q1, … (circuit parameters written as numbers). */

@@ -47,11 +47,13 @@ const cases: { name: string; text: string; where: string; says: string }[] = [
   { name: 'ctrl @ on a defined gate', text: H3 + 'gate g a { h a; }\nqubit[2] q;\nctrl @ g q[0], q[1];\n', where: 'p.qasm:5:1', says: "fray has no built-in controlled 'g'" },
   { name: 'inv @ on a gate whose step has no built-in inverse', text: H3 + 'gate g a, b { ctrl @ sx a, b; }\nqubit[2] q;\ninv @ g q[0], q[1];\n', where: 'p.qasm:5:1', says: "its step 'csx' has no built-in inverse" },
   { name: 'fractional power', text: H3 + 'qubit[1] q;\npow(0.5) @ x q[0];\n', where: 'p.qasm:4:5', says: 'fray applies integer powers only' },
-  // measurement and conditions (terminal measurement in this version)
-  { name: 'if on a measured register', text: H2 + 'qreg q[1];\ncreg c[1];\nmeasure q[0] -> c[0];\nif (c == 1) x q[0];\n', where: 'p.qasm:6:1', says: 'need mid-circuit measurement support' },
-  { name: 'gate after measurement', text: H2 + 'qreg q[1];\ncreg c[1];\nmeasure q[0] -> c[0];\nx q[0];\n', where: 'p.qasm:6:1', says: "'x' on q[0] after its measurement on line 5" },
-  { name: 'one bit written twice', text: H2 + 'qreg q[2];\ncreg c[1];\nmeasure q[0] -> c[0];\nmeasure q[1] -> c[0];\n', where: 'p.qasm:6:1', says: 'bit c[0] is written twice' },
+  // measurement and conditions
   { name: 'measure of unequal registers', text: H2 + 'qreg q[2];\ncreg c[3];\nmeasure q -> c;\n', where: 'p.qasm:5:14', says: 'measure maps 2 qubits onto 3 bits' },
+  { name: 'a measurement without a bit in a program with mid-circuit measurement', text: H3 + 'qubit[1] q;\nbit[1] c;\nmeasure q[0];\nc[0] = measure q[0];\nif (c[0]) x q[0];\n', where: 'p.qasm:5:1', says: 'stores no bit, but the program uses mid-circuit measurement (an operation on q[0] after its measurement on line 6)' },
+  { name: 'a condition on a bit never written before it', text: H2 + 'qreg q[1];\ncreg c[2];\nmeasure q[0] -> c[0];\nif (c == 2) x q[0];\n', where: 'p.qasm:6:10', says: 'bit c[1] is not written by any measurement before this' },
+  { name: 'a value the register cannot hold', text: H2 + 'qreg q[1];\ncreg c[2];\nmeasure q[0] -> c[0];\nif (c == 4) x q[0];\n', where: 'p.qasm:6:10', says: "register 'c' can hold a whole number from 0 to 3" },
+  { name: 'a single bit in an OpenQASM 2.0 condition', text: H2 + 'qreg q[1];\ncreg c[2];\nmeasure q[0] -> c[0];\nif (c[0] == 1) x q[0];\n', where: 'p.qasm:6:5', says: 'OpenQASM 2.0 compares a whole bit register' },
+  { name: 'a conditional measurement', text: H3 + 'qubit[1] q;\nbit[1] c;\nc[0] = measure q[0];\nif (c[0]) { measure q[0]; }\n', where: 'p.qasm:6:13', says: "a conditional 'measure' is not supported" },
   // OpenQASM 3 constructs fray does not simulate
   { name: 'for loop', text: H3 + 'qubit[1] q;\nfor int i in [0:3] { x q[0]; }\n', where: 'p.qasm:4:1', says: "'for' loops are not supported" },
   { name: 'while loop', text: H3 + 'qubit[1] q;\nwhile (true) { x q[0]; }\n', where: 'p.qasm:4:1', says: "'while' loops are not supported" },

@@ -126,9 +126,68 @@ steps:
     expect(sim.result.warnings[0]).toMatch(/^p\.qasm:7:1: c\[1\] holds q\[0\] but an earlier bit holds q\[1\]/);
   });
 
-  it('if (c == n) is refused until mid-circuit measurement exists (see errors.test.ts), U and CX need no header', () => {
+  it('U and CX need no header', () => {
     const r = runProgram('OPENQASM 2.0;\nqreg q[1];\nqreg r[1];\nU(pi, 0, pi) q[0];\nCX q[0], r[0];\n').result;
     expect(r.probabilities.ideal).toEqual({ '11': 1 });
+  });
+});
+
+describe('mid-circuit measurement and conditions (record mode)', () => {
+  it('teleportation (demo teleport.qasm) delivers the sent state u3(1.1, 0.6, 0)|0⟩ to dst[0] (Bennett et al., Phys. Rev. Lett. 70, 1895 (1993))', () => {
+    const sim = runProgram(repoFile('circuits/qasm/teleport.qasm'), 'teleport.qasm');
+    expect(sim.circuit.bits).toEqual(['a[0]', 'b[0]']);
+    // Bloch vector of u3(θ, φ, 0)|0⟩ = (sin θ cos φ, sin θ sin φ, cos θ) (N&C §1.2, Eq. 1.4)
+    const [x, y, z] = sim.result.bloch.ideal[2]!;
+    expect(x).toBeCloseTo(Math.sin(1.1) * Math.cos(0.6), 12);
+    expect(y).toBeCloseTo(Math.sin(1.1) * Math.sin(0.6), 12);
+    expect(z).toBeCloseTo(Math.cos(1.1), 12);
+    for (const k of ['00', '01', '10', '11']) expect(sim.result.probabilities.ideal[k]).toBeCloseTo(0.25, 12);
+  });
+
+  it('if (c == n) conditions every bit of c on bit i of n (c[0] least significant), and the record keeps declaration order', () => {
+    const text = 'OPENQASM 2.0;\ninclude "qelib1.inc";\nqreg q[3];\ncreg c[2];\ncreg d[1];\nx q[1];\nmeasure q[0] -> c[0];\nmeasure q[1] -> c[1];\nif (c == 2) x q[2];\nmeasure q[2] -> d[0];\n';
+    const sim = runProgram(text);
+    const x = sim.circuit.operations.find((o) => o.kind === 'gate' && o.qubits[0] === 2);
+    expect(x?.kind === 'gate' ? x.condition?.terms : undefined).toEqual([{ bit: 0, value: 0 }, { bit: 1, value: 1 }]);
+    expect(sim.circuit.bits).toEqual(['c[0]', 'c[1]', 'd[0]']);
+    expect(sim.result.probabilities.ideal).toEqual({ '011': 1 });
+  });
+
+  it('OpenQASM 3: if (c[i]), if (!c[i]), nested ifs and a qubit reused after its measurement', () => {
+    const text = 'OPENQASM 3;\ninclude "stdgates.inc";\nqubit[2] q;\nbit[3] c;\nx q[0];\nc[0] = measure q[0];\nif (c[0]) { x q[0]; }\nc[1] = measure q[0];\nif (!c[1]) { if (c[0] == 1) { x q[1]; } }\nc[2] = measure q[1];\n';
+    const sim = runProgram(text);
+    expect(sim.result.probabilities.ideal).toEqual({ '101': 1 });
+  });
+
+  it('active reset: measure, then x where the bit reads 1, leaves |0⟩ (common practice)', () => {
+    const sim = runProgram('OPENQASM 2.0;\ninclude "qelib1.inc";\nqreg q[1];\ncreg m[1];\ncreg f[1];\nh q[0];\nmeasure q[0] -> m[0];\nif (m == 1) x q[0];\nmeasure q[0] -> f[0];\n');
+    expect(sim.result.probabilities.ideal['00']).toBeCloseTo(0.5, 14);
+    expect(sim.result.probabilities.ideal['10']).toBeCloseTo(0.5, 14);
+  });
+
+  it('a program with record mode equals its YAML twin, every figure to 1e-12', () => {
+    const qasm = repoFile('circuits/qasm/teleport.qasm');
+    const yaml = `qubits: ["src[0]", "link[0]", "dst[0]"]
+bits: ["a[0]", "b[0]"]
+steps:
+  - u3: "src[0]"
+    angles: [1.1, 0.6, 0]
+  - h: "link[0]"
+  - cx: ["link[0]", "dst[0]"]
+  - barrier: all
+  - cx: ["src[0]", "link[0]"]
+  - h: "src[0]"
+  - measure: "src[0]"
+    into: "a[0]"
+  - measure: "link[0]"
+    into: "b[0]"
+  - x: "dst[0]"
+    if: "b[0]"
+  - z: "dst[0]"
+    if: "a[0]"
+`;
+    const device = repoFile('circuits/devices/ring4-qasm.yaml');
+    expect(figureDistance(runProgram(qasm, 'p.qasm', device).result, runProgram(yaml, 'p.yaml', device).result)).toBeLessThan(TWIN);
   });
 });
 

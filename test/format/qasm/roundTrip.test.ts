@@ -26,6 +26,9 @@ const DEMOS: { circuit: string; device: string; refused?: string }[] = [
   { circuit: 'circuits/coupler-swap.yaml', device: 'circuits/devices/quad-square.yaml', refused: "custom matrix gate 'half_swap' acts on 2 qubits" },
   { circuit: 'circuits/qasm/qft4.qasm', device: 'circuits/devices/ring4-qasm.yaml' },
   { circuit: 'circuits/qasm/ghz-wait.qasm', device: 'circuits/devices/ring4-qasm.yaml' },
+  { circuit: 'circuits/qasm/teleport.qasm', device: 'circuits/devices/ring4-qasm.yaml' },
+  { circuit: 'circuits/teleport.yaml', device: 'circuits/devices/ring4-qasm.yaml' },
+  { circuit: 'circuits/active-reset.yaml', device: 'circuits/devices/ring4-qasm.yaml' },
 ];
 
 /** The largest difference between two results' ideal figures (probabilities and Bloch vectors). */
@@ -36,6 +39,19 @@ function idealDistance(a: ReturnType<typeof run>, b: ReturnType<typeof run>): nu
   a.bloch.ideal.forEach((v, i) => v.forEach((x, j) => (worst = Math.max(worst, Math.abs(x - b.bloch.ideal[i]![j]!)))));
   return worst;
 }
+
+describe('record mode through OpenQASM', () => {
+  it('a condition on two one-bit registers cannot be stated in OpenQASM 2.0 but reads back from 3 with the same figures', () => {
+    const text = repoFile('circuits/repetition-code.yaml');
+    const dev = repoFile('circuits/devices/ring4-qasm.yaml');
+    expect(() => exported(text, 'rep.yaml', dev, 2)).toThrow('OpenQASM 2.0 can only compare a whole bit register with an integer');
+    const c = loadProgram(text, 'rep.yaml', dev).circuit;
+    const { qasm } = exported(text, 'rep.yaml', dev, 3);
+    const back = loadProgram(qasm, 'back.qasm', dev).circuit;
+    expect(back.bits).toEqual(c.bits);
+    expect(back.operations.filter((o) => o.kind === 'gate' && o.condition !== undefined).length).toBe(c.operations.filter((o) => o.kind === 'gate' && o.condition !== undefined).length);
+  });
+});
 
 const run = (text: string, file: string, device: string) => simulateLoaded(loadProgram(text, file, device), { engine: 'reference' }).result;
 
