@@ -243,6 +243,10 @@ class Lowering {
       this.error(c.operand.at, 'qasm-condition', `OpenQASM 2.0 compares a whole bit register with an integer ('if (${c.operand.name} == n)'); single bits are OpenQASM 3`);
       return;
     }
+    if (whole && !c.compared) {
+      this.error(c.operand.at, 'qasm-condition', `a condition on the whole register '${c.operand.name}' needs '== n' (fray conditions on bit values, not on a register being non-zero)`);
+      return;
+    }
     if (!Number.isInteger(c.value) || c.value < 0 || c.value >= 2 ** bits.length) {
       const range = bits.length === 1 ? '0 or 1' : `a whole number from 0 to ${2 ** bits.length - 1}`;
       this.error(c.valueAt, 'qasm-condition', `${whole ? `register '${c.operand.name}'` : `bit ${this.bitNames[bits[0]!]}`} can hold ${range}, so '== ${c.value}' can never hold`);

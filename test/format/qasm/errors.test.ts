@@ -53,6 +53,7 @@ const cases: { name: string; text: string; where: string; says: string }[] = [
   { name: 'a condition on a bit never written before it', text: H2 + 'qreg q[1];\ncreg c[2];\nmeasure q[0] -> c[0];\nif (c == 2) x q[0];\n', where: 'p.qasm:6:10', says: 'bit c[1] is not written by any measurement before this' },
   { name: 'a value the register cannot hold', text: H2 + 'qreg q[1];\ncreg c[2];\nmeasure q[0] -> c[0];\nif (c == 4) x q[0];\n', where: 'p.qasm:6:10', says: "register 'c' can hold a whole number from 0 to 3" },
   { name: 'a single bit in an OpenQASM 2.0 condition', text: H2 + 'qreg q[1];\ncreg c[2];\nmeasure q[0] -> c[0];\nif (c[0] == 1) x q[0];\n', where: 'p.qasm:6:5', says: 'OpenQASM 2.0 compares a whole bit register' },
+  { name: 'a bare whole-register condition', text: H3 + 'qubit[2] q;\nbit[2] c;\nc = measure q;\nif (c) x q[0];\n', where: 'p.qasm:6:5', says: "needs '== n'" },
   { name: 'a conditional measurement', text: H3 + 'qubit[1] q;\nbit[1] c;\nc[0] = measure q[0];\nif (c[0]) { measure q[0]; }\n', where: 'p.qasm:6:13', says: "a conditional 'measure' is not supported" },
   // OpenQASM 3 constructs fray does not simulate
   { name: 'for loop', text: H3 + 'qubit[1] q;\nfor int i in [0:3] { x q[0]; }\n', where: 'p.qasm:4:1', says: "'for' loops are not supported" },
