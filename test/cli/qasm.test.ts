@@ -59,4 +59,19 @@ describe('fray run, convert and export with OpenQASM', () => {
     expect(r.out).toBe('');
     expect(r.err).toMatch(/^circuits\/coupler-swap\.yaml:\d+:\d+: custom matrix gate 'half_swap' acts on 2 qubits/);
   });
+
+  it('--set changes profile fields of a program run, and refuses parameters (a program has none)', async () => {
+    const base = JSON.parse((await fray('run', 'circuits/qasm/qft4.qasm', '--device', 'circuits/devices/ring4-qasm.yaml', '--json')).out);
+    const worse = JSON.parse((await fray('run', 'circuits/qasm/qft4.qasm', '--device', 'circuits/devices/ring4-qasm.yaml', '--set', 'gates.cu1.error=0.05', '--json')).out);
+    expect(worse.fidelity.state).toBeLessThan(base.fidelity.state);
+    const r = await fray('run', 'circuits/qasm/qft4.qasm', '--set', 'theta=1');
+    expect(r.code).toBe(2);
+    expect(r.err).toContain('--set theta: an OpenQASM program has no parameters to set');
+  });
+
+  it('compare takes OpenQASM programs as variants', async () => {
+    const r = await fray('compare', 'circuits/qasm/qft4.qasm', 'circuits/qasm/ghz-wait.qasm', '--device', 'circuits/devices/ring4-qasm.yaml', '--json');
+    expect(r.code).toBe(0);
+    expect(r.out).toContain('circuits/qasm/ghz-wait.qasm');
+  });
 });
