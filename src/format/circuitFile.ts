@@ -126,6 +126,7 @@ export function readCircuitTree(
     params,
     channels,
     gateArity,
+    definitions: gates.definitions(),
     compositeGates,
     observe,
     ...(mitigation !== undefined ? { mitigation } : {}),
