@@ -4,6 +4,7 @@ import { runCommand } from './runCommand.js';
 import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
 import { makeStyle, wantColor } from './style.js';
 import { mitigateCommand, parseInstances, parseScales } from './mitigateCommand.js';
+import { transformCommand } from './transformCommand.js';
 import { FIT_KINDS } from '../mitigation/extrapolate.js';
 import { READOUT_METHODS } from '../mitigation/readoutCorrection.js';
 import { DECOUPLING_SEQUENCES } from '../transforms/decouple.js';
@@ -342,6 +343,31 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     exitWith(await checkCommand(files, opts, io));
   });
   checkCmd.exitOverride();
+
+  const transformCmd = addTargetOptions(
+    program
+      .command('transform')
+      .description('write a transformed circuit file: dynamical decoupling inserted, or gates folded (what fray mitigate runs)')
+      .argument('<file>', 'circuit file (YAML)')
+      .option('--dd <sequence>', `fill idle windows with a decoupling sequence: ${DECOUPLING_SEQUENCES.join(', ')}`)
+      .option('--min-idle <duration>', 'shortest idle window --dd fills, e.g. 200ns (default: every window its pulses fit in)')
+      .option('--fold <scale>', 'fold the gates to this noise scale (G -> G (G†G)^k, fractional by the last gates)')
+      .option('--order <order>', 'which gates fold once more for a fractional --fold: end (default) or random')
+      .option('--seed <s>', 'seed of --order random (default 1)', parseSeed)
+      .option('--out <file>', 'write the new circuit here (default: standard output)')
+      .addHelpText(
+        'after',
+        '\nExamples:\n' +
+          '  fray transform circuits/mitigation/ghz-line.yaml --dd xy4 --min-idle 200ns --out ghz-dd.yaml\n' +
+          '  fray transform circuits/ghz5.yaml --fold 3\n' +
+          '\nThe new file keeps every section of the old one but its steps, with a header comment saying what\n' +
+          "was inserted where. Steps with their own noise: cannot be written yet (run fray mitigate instead).",
+      ),
+    'multiply every noise strength by C ≥ 0 when scheduling (it changes no durations)',
+  ).action(async (file: string, opts: Record<string, unknown>) => {
+    await transformCommand(file, opts, io);
+  });
+  transformCmd.exitOverride();
   addFormatCommands(program, io);
   return program;
 }
