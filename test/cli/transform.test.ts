@@ -5,15 +5,11 @@ import { loadCircuit } from '../../src/api/loadCircuit.js';
 import { simulateLoaded } from '../../src/api/simulate.js';
 import { insertDecoupling } from '../../src/transforms/decouple.js';
 import { foldCircuit } from '../../src/transforms/fold.js';
+import { maxDiff } from '../helpers/arrays.js';
 
 const DEMO = 'circuits/mitigation/ghz-line.yaml';
 const SAME_RUN = 1e-12;
 
-function maxDiff(a: Float64Array, b: Float64Array): number {
-  let m = 0;
-  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i]! - b[i]!));
-  return m;
-}
 
 describe('fray transform', () => {
   it('writes a circuit file that runs exactly as the transform run directly, with a header saying what was inserted', async () => {

@@ -2,15 +2,11 @@ import { describe, expect, it } from 'vitest';
 import { foldCircuit } from '../../src/transforms/fold.js';
 import { simulateLoaded } from '../../src/api/simulate.js';
 import { loadText } from '../helpers/load.js';
+import { maxDiff } from '../helpers/arrays.js';
 
 /** Rounding of a few hundred kernel operations on a small density matrix. */
 const SAME_RUN = 1e-12;
 
-function maxDiff(a: Float64Array, b: Float64Array): number {
-  let m = 0;
-  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i]! - b[i]!));
-  return m;
-}
 
 // gates of several kinds, a composite with split parts, a matrix gate; no noise at all
 const IDEAL = `

@@ -6,6 +6,7 @@ import { pauliLabels } from '../../src/noise/channels.js';
 import type { PauliFrame } from '../../src/noise/twirl.js';
 import type { Operation } from '../../src/circuit/circuit.js';
 import { loadText } from '../helpers/load.js';
+import { maxDiff } from '../helpers/arrays.js';
 
 const EXACT = 1e-12;
 
@@ -29,11 +30,6 @@ steps:
   - h: 0
 `;
 
-function maxDiff(a: Float64Array, b: Float64Array): number {
-  let m = 0;
-  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i]! - b[i]!));
-  return m;
-}
 
 describe('Pauli twirling in a run', () => {
   const loaded = loadText(TEXT);
