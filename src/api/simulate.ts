@@ -4,9 +4,10 @@ import { referenceKernels, type Kernels } from '../engine/kernels.js';
 import type { DensityMatrix } from '../engine/layout.js';
 import { checkMemory, defaultMemoryLimit, MemoryLimitError } from '../engine/memory.js';
 import { MAX_IDEAL_BRANCHES, runIdeal, runNoisy } from '../engine/run.js';
-import { runCompiled, THREADS_MIN_QUBITS } from '../engine/runCompiled.js';
+import { kernelFamilyOf, runCompiled, THREADS_MIN_QUBITS } from '../engine/runCompiled.js';
 import { defaultThreads, sharedThreadPool } from '../engine/threadPool.js';
 import { WARM_MIN_QUBITS, warmKernels } from '../engine/warmKernels.js';
+import { kernelFamilyFor, type KernelFamily } from '../engine/wasmKernels.js';
 import { buildPlan } from '../plan/buildPlan.js';
 import { compilePlan } from '../plan/compilePlan.js';
 import type { Plan } from '../plan/plan.js';
@@ -40,6 +41,22 @@ export interface SimulateOptions {
   readonly threads?: number;
   /** Fuse instructions into as few passes as possible (default true); false = one general kernel call per instruction. */
   readonly fuse?: boolean;
+  /**
+   * Kernels of the fast engine's real-form passes: 'wasm' (default) the WebAssembly SIMD kernels
+   * where ρ fits in WebAssembly memory (up to 13 qubits), else the JS ones; 'js' always the JS
+   * kernels. Both give bit-for-bit the same ρ.
+   */
+  readonly kernelFamily?: KernelFamily;
+}
+
+/**
+ * What ran the noisy run: 'wasm' = WebAssembly SIMD kernels for the real-form passes (the
+ * diagonal and general passes always run in JS), 'js' = JS kernels throughout, 'reference' =
+ * the instruction-by-instruction reference engine; and how many threads shared each pass.
+ */
+export interface EngineInfo {
+  readonly kernels: KernelFamily | 'reference';
+  readonly threads: number;
 }
 
 /** The JSON object of `fray run --json` (the contract's keys plus a few of fray's own). */
@@ -62,6 +79,8 @@ export interface RunResult {
   readonly shots?: number;
   readonly seed?: number;
   readonly counts?: Figures['counts'];
+  /** Which kernels ran and on how many threads (EngineInfo). */
+  readonly engine: EngineInfo;
   readonly warnings: readonly string[];
 }
 
@@ -111,6 +130,8 @@ export interface PlannedRun {
   readonly schedule: Schedule;
   readonly program: Program;
   readonly plan: Plan;
+  /** The kernel family the real-form passes would run on (SimulateOptions.kernelFamily, where it can run). */
+  readonly kernels: KernelFamily;
   readonly problems: ProblemList;
 }
 
@@ -150,7 +171,7 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
 export function planLoaded(loaded: LoadedCircuit, options: SimulateOptions = {}): PlannedRun {
   const { schedule, program, problems } = prepare(loaded, options);
   const plan = buildPlan(program.n, program.noisy, { fuse: options.fuse !== false });
-  return { schedule, program, plan, problems };
+  return { schedule, program, plan, kernels: kernelFamilyFor(program.n, options.kernelFamily), problems };
 }
 
 /** Reads a circuit file and returns its plan (`fray run --plan`). Throws InputError on bad input. */
@@ -167,8 +188,10 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
   const threads = options.threads ?? defaultThreads();
   if (fast && (!Number.isInteger(threads) || threads < 1)) throw new RangeError(`simulate: threads must be a whole number ≥ 1, not ${threads}`);
   // start the workers first: they boot and warm up while this thread schedules, plans and warms its own kernels
-  const pool = fast && threads > 1 && n >= THREADS_MIN_QUBITS ? sharedThreadPool(threads) : undefined;
-  if (fast && n >= WARM_MIN_QUBITS) warmKernels();
+  const family = kernelFamilyFor(n, options.kernelFamily);
+  const pool = fast && threads > 1 && n >= THREADS_MIN_QUBITS ? sharedThreadPool(threads, family === 'js') : undefined;
+  // the WebAssembly kernels need no JIT warm-up; the JS ones do
+  if (fast && family === 'js' && n >= WARM_MIN_QUBITS) warmKernels();
   const { schedule, program, problems } = prepare(loaded, options);
   try {
     checkMemory(n, idealStaysOnVectors(program), options.maxMemoryBytes ?? defaultMemoryLimit());
@@ -182,13 +205,16 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
   let rho: DensityMatrix;
   let plan: Plan | undefined;
   let ideal: IdealState;
+  let engine: EngineInfo;
   if (!fast) {
+    engine = { kernels: 'reference', threads: 1 };
     const kernels = options.kernels ?? referenceKernels;
     rho = runNoisy(n, program.noisy, kernels);
     ideal = runIdeal(n, program.ideal, kernels);
   } else {
     plan = buildPlan(n, program.noisy, { fuse: options.fuse !== false });
-    rho = runCompiled(compilePlan(plan), pool);
+    rho = runCompiled(compilePlan(plan), pool, THREADS_MIN_QUBITS, family);
+    engine = { kernels: kernelFamilyOf(rho), threads: pool !== undefined ? pool.parts : 1 };
     ideal = runIdeal(n, program.ideal, fastKernels);
   }
   const measured = measuredQubits(circuit);
@@ -218,6 +244,7 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     bloch: figures.bloch,
     ...(figures.observables !== undefined ? { observables: figures.observables } : {}),
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED, counts: figures.counts } : {}),
+    engine,
     warnings: problems.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`),
   };
   return { circuit, profile, schedule, program, ...(plan !== undefined ? { plan } : {}), rho, ideal, result, warnings: problems.warnings };

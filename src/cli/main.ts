@@ -95,6 +95,12 @@ function buildProgram(io: CliIO): Command {
     .option('--plan', 'print the plan of kernel calls (what is fused into each pass over the density matrix) instead of running')
     .option('--threads <n>', 'threads sharing each pass on 9+ qubits (default: the machine\'s cores; 1 = off)', parseThreads)
     .option('--no-fuse', 'apply every gate and channel as its own pass (slower; for comparison)')
+    .addOption(
+      new Option('--kernels <family>', 'kernels of the fused passes: wasm (WebAssembly SIMD, up to 13 qubits; the default) or js (same results, slower)').choices([
+        'wasm',
+        'js',
+      ]),
+    )
     .option('--no-color', 'plain text even on a terminal (NO_COLOR is respected too)')
     .addHelpText(
       'after',

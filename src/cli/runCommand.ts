@@ -1,6 +1,7 @@
 import { planFile, simulate } from '../api/simulate.js';
 import { formatPlan, planToJson } from '../plan/formatPlan.js';
 import { parseByteSize } from '../engine/memory.js';
+import type { KernelFamily } from '../engine/wasmKernels.js';
 import { renderRunReport } from './runReport.js';
 import { toJson } from './json.js';
 import { makeStyle, wantColor } from './style.js';
@@ -29,11 +30,12 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
     ...(maxMemoryBytes !== undefined ? { maxMemoryBytes } : {}),
     ...(opts['threads'] !== undefined ? { threads: opts['threads'] as number } : {}),
     fuse: opts['fuse'] !== false,
+    ...(opts['kernels'] !== undefined ? { kernelFamily: opts['kernels'] as KernelFamily } : {}),
   };
   if (opts['plan'] === true) {
     const planned = planFile(file, options);
     const origins = planned.program.origins;
-    io.stdout.write(opts['json'] ? toJson(planToJson(planned.plan, origins)) + '\n' : formatPlan(planned.plan, origins));
+    io.stdout.write(opts['json'] ? toJson(planToJson(planned.plan, origins, planned.kernels)) + '\n' : formatPlan(planned.plan, origins, planned.kernels));
     return;
   }
   const sim = simulate(file, options);
