@@ -4,6 +4,8 @@ import { runCommand } from './runCommand.js';
 import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
 import { makeStyle, wantColor } from './style.js';
 import { renderProblems } from './problems.js';
+import { parseWholeNumber } from './wholeNumber.js';
+import { MAX_SHOTS } from '../results/sampling.js';
 
 /** Exit statuses of the fray command (the contract's): success, internal error, input error. */
 export const EXIT = { ok: 0, internal: 1, input: 2 } as const;
@@ -85,7 +87,7 @@ function buildProgram(io: CliIO): Command {
     .option('--json', 'print one JSON object instead of the report')
     .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
     .addOption(new Option('--set <name=value...>', 'override a circuit parameter (repeatable), e.g. --set theta=0.4 --set "phi=pi/8"'))
-    .option('--shots <n>', 'also sample this many shots from the measured distribution', parseShots)
+    .option('--shots <n>', 'also sample this many shots from the measured distribution (a whole number up to 2^53, e.g. 1e6)', parseShots)
     .option('--seed <s>', 'seed of the shot sampler (default 1); the same seed gives the same counts everywhere', parseSeed)
     .addOption(new Option('--observe <pauli...>', 'report ⟨P⟩ for Pauli strings, qubit 0 leftmost (repeatable or comma-separated), e.g. --observe ZZI,XXX'))
     .option('--top <k>', 'how many outcomes the report lists (default 8)', parseTop, 8)
@@ -145,10 +147,13 @@ function buildProgram(io: CliIO): Command {
   return program;
 }
 
+/** --shots: a whole number from 1 to 2^53 (MAX_SHOTS) in any integer notation of parseWholeNumber, e.g. 1e6. */
 function parseShots(v: string): number {
-  const n = Number(v);
-  if (!/^\d+$/.test(v) || !Number.isSafeInteger(n) || n < 1) throw new UsageError(`--shots ${v}: expected a whole number of shots, 1 or more`);
-  return n;
+  const n = parseWholeNumber(v);
+  if (n === undefined || n < 1n || n > BigInt(MAX_SHOTS)) {
+    throw new UsageError(`--shots ${v}: expected a whole number of shots from 1 to 2^53, e.g. 1000, 1e6 or 0x100000`);
+  }
+  return Number(n);
 }
 
 function parseSeed(v: string): number {

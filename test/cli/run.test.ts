@@ -36,6 +36,23 @@ describe('fray run', () => {
     expect(a.seed).toBe(7);
   });
 
+  it('--shots takes any integer notation of JSON or YAML up to 2^53, and the counts sum to it exactly', async () => {
+    for (const [text, value] of [
+      ['1e6', 1e6],
+      ['2.5e3', 2500],
+      ['0x100', 256],
+      ['0o17', 15],
+      ['+40', 40],
+      ['9007199254740992', 2 ** 53],
+    ] as const) {
+      const r = await fray('run', 'circuits/ghz5.yaml', '--json', '--shots', text);
+      expect(r.code, text).toBe(0);
+      const j = JSON.parse(r.out);
+      expect(j.shots).toBe(value);
+      expect(Object.values(j.counts as Record<string, number>).reduce((x, y) => x + y, 0)).toBe(value);
+    }
+  });
+
   it('--set overrides a parameter and --observe adds Pauli strings', async () => {
     const base = JSON.parse((await fray('run', 'circuits/ramsey-echo.yaml', '--json')).out);
     const other = JSON.parse((await fray('run', 'circuits/ramsey-echo.yaml', '--json', '--set', 'detune=0', '--observe', 'XX,ZZ')).out);
@@ -92,7 +109,7 @@ describe('fray run', () => {
   });
 
   it('bad option values are input errors', async () => {
-    for (const args of [['--shots', 'many'], ['--max-memory', 'lots'], ['--observe', 'ZZ'], ['--set', 'nonsense'], ['--bogus']]) {
+    for (const args of [['--shots', 'many'], ['--shots', '1.5'], ['--shots', '0'], ['--shots', '9007199254740993'], ['--shots', '1e300'], ['--max-memory', 'lots'], ['--observe', 'ZZ'], ['--set', 'nonsense'], ['--bogus']]) {
       const r = await fray('run', 'circuits/ghz5.yaml', ...args);
       expect(r.code, args.join(' ')).toBe(2);
       expect(r.out).toBe('');
