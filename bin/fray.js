@@ -1,6 +1,6 @@
 #!/usr/bin/env node
-// Thin launcher: the CLI lives in src/cli (compiled to dist/ by `npm install`).
-import { main } from '../dist/cli/main.js';
+// Thin launcher: the CLI lives in src/cli, bundled into dist/bundle/cli.js by `npm install` (prepare).
+import { main } from '../dist/bundle/cli.js';
 
 main(process.argv.slice(2)).then((code) => {
   process.exitCode = code;

@@ -42,9 +42,9 @@ export interface SimulateOptions {
   /** Fuse instructions into as few passes as possible (default true); false = one general kernel call per instruction. */
   readonly fuse?: boolean;
   /**
-   * Kernels of the fast engine's real-form passes: 'wasm' (default) the WebAssembly SIMD kernels
-   * where ρ fits in WebAssembly memory (up to 13 qubits), else the JS ones; 'js' always the JS
-   * kernels. Both give bit-for-bit the same ρ.
+   * Kernels of the fast engine's real-form passes: 'wasm' the WebAssembly SIMD kernels where ρ
+   * fits in WebAssembly memory (up to 13 qubits), else the JS ones; 'js' always the JS kernels;
+   * by default 'wasm' from 8 qubits on (WASM_MIN_QUBITS). Both give bit-for-bit the same ρ.
    */
   readonly kernelFamily?: KernelFamily;
 }

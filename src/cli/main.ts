@@ -98,7 +98,7 @@ function buildProgram(io: CliIO): Command {
     .option('--threads <n>', 'threads sharing each pass on 9+ qubits (default: the machine\'s cores; 1 = off)', parseThreads)
     .option('--no-fuse', 'apply every gate and channel as its own pass (slower; for comparison)')
     .addOption(
-      new Option('--kernels <family>', 'kernels of the fused passes: wasm (WebAssembly SIMD, up to 13 qubits; the default) or js (same results, slower)').choices([
+      new Option('--kernels <family>', 'kernels of the fused passes: wasm (WebAssembly SIMD, up to 13 qubits) or js (same results); default wasm from 8 qubits').choices([
         'wasm',
         'js',
       ]),

@@ -80,9 +80,20 @@ export function wasmUnavailableReason(): string | undefined {
   return unavailable;
 }
 
-/** The kernel family that runs n-qubit passes when `wanted` is asked for: 'wasm' only where it can. */
-export function kernelFamilyFor(n: number, wanted: KernelFamily = 'wasm'): KernelFamily {
-  return wanted === 'wasm' && n <= WASM_MAX_QUBITS && wasmKernelModule() !== undefined ? 'wasm' : 'js';
+/**
+ * Smallest register the WebAssembly kernels run on unless asked for explicitly: below it a
+ * whole run's passes take less time than compiling the kernels' optimised code (≈ 10–30 ms),
+ * and the JS kernels start in the interpreter at no cost.
+ */
+export const WASM_MIN_QUBITS = 8;
+
+/**
+ * The kernel family that runs n-qubit passes when `wanted` is asked for: 'wasm' only where it
+ * can; with nothing asked, 'wasm' from WASM_MIN_QUBITS on.
+ */
+export function kernelFamilyFor(n: number, wanted?: KernelFamily): KernelFamily {
+  if (wanted === 'js' || n > WASM_MAX_QUBITS || (wanted === undefined && n < WASM_MIN_QUBITS)) return 'js';
+  return wasmKernelModule() !== undefined ? 'wasm' : 'js';
 }
 
 /** What a thread needs to run the WebAssembly kernels on a register: sent to workers on attach. */

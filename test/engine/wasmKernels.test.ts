@@ -11,7 +11,7 @@ import type { DensityMatrix } from '../../src/engine/layout.js';
 import { isTracePreservingRealForm, realFormOf } from '../../src/engine/realForm.js';
 import { applyCompiled, createSharedDensityMatrix, kernelFamilyOf } from '../../src/engine/runCompiled.js';
 import { closeSharedThreadPool, sharedThreadPool } from '../../src/engine/threadPool.js';
-import { kernelFamilyFor, WASM_MAX_QUBITS, wasmKernelModule } from '../../src/engine/wasmKernels.js';
+import { kernelFamilyFor, WASM_MAX_QUBITS, WASM_MIN_QUBITS, wasmKernelModule } from '../../src/engine/wasmKernels.js';
 import { krausToSuperoperator } from '../../src/linalg/superoperator.js';
 import type { CMatrix } from '../../src/linalg/cmatrix.js';
 import { denseChannel, rhoDiff, rhoToMath } from './dense.js';
@@ -80,11 +80,15 @@ function pairs(n: number): Array<[number, number]> {
 }
 
 describe('WebAssembly kernels', () => {
-  it('run on this Node (the fresh-clone default) up to WASM_MAX_QUBITS, and the JS kernels above', () => {
+  it('run on this Node (the fresh-clone default) from WASM_MIN_QUBITS to WASM_MAX_QUBITS (any size when asked), the JS kernels elsewhere', () => {
     expect(wasmKernelModule()).toBeDefined();
+    expect(kernelFamilyFor(WASM_MIN_QUBITS)).toBe('wasm');
     expect(kernelFamilyFor(WASM_MAX_QUBITS)).toBe('wasm');
+    expect(kernelFamilyFor(WASM_MIN_QUBITS - 1)).toBe('js');
+    expect(kernelFamilyFor(1, 'wasm')).toBe('wasm');
     expect(kernelFamilyFor(WASM_MAX_QUBITS + 1)).toBe('js');
-    expect(kernelFamilyFor(3, 'js')).toBe('js');
+    expect(kernelFamilyFor(WASM_MAX_QUBITS + 1, 'wasm')).toBe('js');
+    expect(kernelFamilyFor(10, 'js')).toBe('js');
   });
 
   it('the committed wasm/kernels.wasm is exactly what its generator writes', () => {
