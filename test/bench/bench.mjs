@@ -91,16 +91,29 @@ const fray = (file, ...extra) => ['bin/fray.js', 'run', file, '--json', ...extra
 const rounds = quick ? 3 : 5;
 print(`## Reference circuit ${circuit10} (10 qubits × 20 layers; median of ${rounds} runs unless noted)`);
 print();
-const whole = medianOf(rounds, () => timeProcess('node', fray(circuit10, '--threads', '2')).ms);
-const whole1 = medianOf(rounds, () => timeProcess('node', fray(circuit10, '--threads', '1')).ms);
-const wholeJs = medianOf(rounds, () => timeProcess('node', fray(circuit10, '--threads', '2', '--kernels', 'js')).ms);
-const baseRows = [];
-let baseWhole;
+// the whole-process runs are interleaved round by round, so that load from other work on a
+// shared machine hits every variant (and the baseline) alike
+const variants = {
+  whole: fray(circuit10, '--threads', '2'),
+  whole1: fray(circuit10, '--threads', '1'),
+  wholeJs: fray(circuit10, '--threads', '2', '--kernels', 'js'),
+};
 if (baseline !== undefined) {
   const base = (...extra) => [join(baseline, 'bin/fray.js'), 'run', join(root, circuit10), '--json', ...extra];
-  baseWhole = medianOf(rounds, () => timeProcess('node', base('--threads', '2')).ms);
+  variants.base = base('--threads', '2');
+  variants.base1 = base('--threads', '1');
+}
+const times = Object.fromEntries(Object.keys(variants).map((k) => [k, []]));
+for (let i = 0; i < rounds; i++) for (const [k, args] of Object.entries(variants)) times[k].push(timeProcess('node', args).ms);
+const medianTime = (k) => [...times[k]].sort((a, b) => a - b)[rounds >> 1];
+const whole = medianTime('whole');
+const whole1 = medianTime('whole1');
+const wholeJs = medianTime('wholeJs');
+const baseRows = [];
+const baseWhole = baseline !== undefined ? medianTime('base') : undefined;
+if (baseline !== undefined) {
   baseRows.push([`baseline \`${baseline}\`, whole process, 2 threads`, baseWhole]);
-  baseRows.push([`baseline, whole process, \`--threads 1\``, medianOf(rounds, () => timeProcess('node', base('--threads', '1')).ms)]);
+  baseRows.push(['baseline, whole process, `--threads 1`', medianTime('base1')]);
 }
 const loaded = loadCircuit(join(root, circuit10));
 const planned = planLoaded(loaded);
