@@ -9,7 +9,7 @@ import type { DensityMatrix } from './layout.js';
 import { checkQubitCount } from './targets.js';
 import type { ThreadPool } from './threadPool.js';
 import { awaitOptimisedKernels, WARM_MIN_QUBITS } from './warmKernels.js';
-import { createWasmRegister, kernelFamilyFor, wasmKernelModule, wasmRegisterOf, type KernelFamily } from './wasmKernels.js';
+import { createWasmRegister, kernelFamilyFor, WASM_MAX_PARTS, wasmKernelModule, wasmRegisterOf, type KernelFamily } from './wasmKernels.js';
 
 /**
  * Smallest register on which passes are split over threads. Measured on the 2-vCPU bench
@@ -47,12 +47,13 @@ export function kernelFamilyOf(rho: DensityMatrix): KernelFamily {
 export function applyCompiled(rho: DensityMatrix, plan: CompiledPlan, pool?: ThreadPool, minThreadQubits = THREADS_MIN_QUBITS): void {
   if (plan.n !== rho.n) throw new RangeError(`applyCompiled: plan for ${plan.n} qubits, register of ${rho.n}`);
   const n = rho.n;
-  const reg = wasmRegisterOf(rho.data);
+  const wantThreads = pool !== undefined && n >= minThreadQubits && rho.data.buffer instanceof SharedArrayBuffer;
+  if (wantThreads) pool.ready();
+  // (a pool beyond WASM_MAX_PARTS parts, which the scratch area cannot serve, runs the JS kernels on the same memory)
+  const reg = wantThreads && pool.parts > WASM_MAX_PARTS ? undefined : wasmRegisterOf(rho.data);
   reg?.loadArena(plan.arena);
   const wasm = reg?.bind();
   if (reg === undefined && n >= WARM_MIN_QUBITS) awaitOptimisedKernels();
-  const wantThreads = pool !== undefined && n >= minThreadQubits && rho.data.buffer instanceof SharedArrayBuffer;
-  if (wantThreads) pool.ready();
   if (wantThreads && pool.parts > 1) {
     pool.attach(rho.data, plan.arena, plan.words, reg?.handle());
     try {

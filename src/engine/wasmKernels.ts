@@ -4,7 +4,7 @@
  * in the same order as the JS real-form kernels (./kernelReal1.ts, ./kernelReal2.ts), so both
  * families give bit-for-bit the same ρ; the JS kernels stay the reference and the fallback.
  *
- * Memory layout of a register (byte addresses): [0, ρ_AT) scratch, SCRATCH_BYTES_PER_PART per
+ * Memory layout of a register (byte addresses): [0, RHO_AT) scratch, SCRATCH_BYTES_PER_PART per
  * thread part; [ρ_AT, ρ_AT + 16·4^n) ρ in the layout of ./layout.ts; then the plan's arena
  * (f64), grown on demand. wasm32 addresses 4 GiB, so ρ fits up to WASM_MAX_QUBITS qubits.
  */
@@ -36,9 +36,9 @@ export const WASM_MAX_QUBITS = 13;
 const PAGE = 65536;
 /** Scratch bytes each thread part gets (the 2-qubit kernel keeps 16 coordinates and 16 outputs of two blocks, and its matrix address, there: 1028 bytes). */
 export const SCRATCH_BYTES_PER_PART = 2048;
-/** Byte address of ρ: one page of scratch before it (room for PAGE / SCRATCH_BYTES_PER_PART parts). */
-const RHO_AT = PAGE;
-/** Most thread parts the scratch page serves. */
+/** Byte address of ρ: 16 pages of scratch before it (room for RHO_AT / SCRATCH_BYTES_PER_PART = 512 parts). */
+const RHO_AT = 16 * PAGE;
+/** Most thread parts the scratch area serves (runCompiled.ts runs the JS kernels on larger pools). */
 export const WASM_MAX_PARTS = RHO_AT / SCRATCH_BYTES_PER_PART;
 
 /** The kernels the module exports (byte addresses; see the generator for the arguments). */
