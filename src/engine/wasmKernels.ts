@@ -34,9 +34,13 @@ export const WASM_MAX_QUBITS = 13;
 
 /** Bytes of a WebAssembly page. */
 const PAGE = 65536;
-/** Scratch bytes each thread part gets (the 2-qubit kernel keeps 16 coordinates and 16 outputs of two blocks, and its matrix address, there: 1028 bytes). */
-export const SCRATCH_BYTES_PER_PART = 2048;
-/** Byte address of ρ: 16 pages of scratch before it (room for RHO_AT / SCRATCH_BYTES_PER_PART = 512 parts). */
+/**
+ * Scratch bytes each thread part gets: the kernels keep the matrix there with every entry
+ * splatted into a v128, and the 2-qubit kernel the 16 coordinates and 16 outputs of two blocks
+ * (6144 bytes used; the generator's SCRATCH_BYTES).
+ */
+export const SCRATCH_BYTES_PER_PART = 8192;
+/** Byte address of ρ: 16 pages of scratch before it (room for RHO_AT / SCRATCH_BYTES_PER_PART = 128 parts). */
 const RHO_AT = 16 * PAGE;
 /** Most thread parts the scratch area serves (runCompiled.ts runs the JS kernels on larger pools). */
 export const WASM_MAX_PARTS = RHO_AT / SCRATCH_BYTES_PER_PART;

@@ -201,7 +201,7 @@ print(`## Stages of the whole process on ${circuit10} (median ms of ${stageRound
 print();
 const stageNames = {
   node: 'Node itself (until the first line of the script)',
-  import: 'importing the CLI bundle',
+  import: 'loading the CLI bundle (code cache)',
   read: 'YAML reading and validation',
   program: 'schedule and program',
   plan: 'plan building and packing',

@@ -22,17 +22,35 @@ const root = fileURLToPath(new URL('../../', import.meta.url));
 const outFile = process.env.WASM_OUT ?? root + 'wasm/kernels.wasm';
 
 const get = (x) => `(local.get $${x})`;
-const splat = (mat, index) => `(v128.load64_splat offset=${8 * index} (local.get $${mat}))`;
 // shuffles of two f64x2 values a, b: [a.hi, b.lo] and the lane swap [a.hi, a.lo]
 const HI_LO = 'i8x16.shuffle 8 9 10 11 12 13 14 15 16 17 18 19 20 21 22 23';
+// [a.lo, b.hi]: a lane blend
+const LO_HI = 'i8x16.shuffle 0 1 2 3 4 5 6 7 24 25 26 27 28 29 30 31';
 const swap = (x) => `(i8x16.shuffle 8 9 10 11 12 13 14 15 0 1 2 3 4 5 6 7 ${x} ${x})`;
-// sign bit of lane 1 (im) / lane 0 (re): xor with it negates that lane exactly (as JS unary minus)
+// sign bit of lane 1 (im): xor with it negates that lane exactly (as JS unary minus)
 const SIGN_IM = '(v128.const i64x2 0 0x8000000000000000)';
-/** Byte offset in a part's scratch where a kernel keeps its matrix address (see real2). */
-const MAT_SLOT = 1024;
+/** Byte offset in a part's scratch of the sign mask SIGN_IM (real2's mirrored writes load it once per block). */
+const SIGN_SLOT = 1024;
+/**
+ * Byte offset in a part's scratch of the matrix, each entry splatted into a v128 at the call's
+ * start: a plain v128.load with a constant offset is one instruction, where V8 computes the
+ * address of every v128.load64_splat separately (and hoists and spills those addresses).
+ */
+const MAT_SPLATS = 2048;
+/** Scratch bytes a thread part needs: MAT_SPLATS plus 256 splatted entries (src/engine/wasmKernels.ts: SCRATCH_BYTES_PER_PART). */
+const SCRATCH_BYTES = MAT_SPLATS + 256 * 16;
+
+/** Copies the size × size matrix at $mat into the scratch as splatted v128 entries. */
+function splatMatrix(size) {
+  return `(local.set $si (i32.const 0))
+    (loop $splat
+      (v128.store offset=${MAT_SPLATS} (i32.add (local.get $scratch) (i32.shl (local.get $si) (i32.const 4)))
+        (v128.load64_splat (i32.add (local.get $mat) (i32.shl (local.get $si) (i32.const 3)))))
+      (local.set $si (i32.add (local.get $si) (i32.const 1)))
+      (br_if $splat (i32.lt_u (local.get $si) (i32.const ${size * size}))))`;
+}
 /** Coordinates J per step of the 2-qubit product loop (16 must be a multiple; measured on the bench machine with 1, 2 and 4: 1 was fastest). */
 const TERMS_PER_STEP = 1;
-const SIGN_RE = '(v128.const i64x2 0x8000000000000000 0)';
 
 /** A straight-line body under construction: v128 locals and their assignments. */
 class Body {
@@ -62,20 +80,17 @@ function forward(b, out, p00, p01, p10, p11) {
 
 /**
  * Inverse per-factor transform of the JS generator: p00 = w0, p11 = w1,
- * p01 = (w2r + w3i, w2i − w3r), p10 = (w2r − w3i, w2i + w3r).
+ * p01 = (w2r + w3i, w2i − w3r), p10 = (w2r − w3i, w2i + w3r): the sum and the difference of w2
+ * and the swapped w3, then their lanes blended (the very additions and subtractions of the JS
+ * kernel, and no sign constant to materialise).
  */
 function inverse(b, w, names) {
   const [n00, n01, n10, n11] = names;
-  b.set(n01, `(f64x2.add ${get(w[2])} (v128.xor ${swap(get(w[3]))} ${SIGN_IM}))`);
-  b.set(n10, `(f64x2.add ${get(w[2])} (v128.xor ${swap(get(w[3]))} ${SIGN_RE}))`);
+  const plus = b.set(`${n01}_plus`, `(f64x2.add ${get(w[2])} ${swap(get(w[3]))})`);
+  const minus = b.set(`${n01}_minus`, `(f64x2.sub ${get(w[2])} ${swap(get(w[3]))})`);
+  b.set(n01, `(${LO_HI} ${get(plus)} ${get(minus)})`);
+  b.set(n10, `(${LO_HI} ${get(minus)} ${get(plus)})`);
   return { [n00]: w[0], [n11]: w[1], [n01]: n01, [n10]: n10 };
-}
-
-/** y_i = Σ_j M'[i][j]·u_j, each a left-to-right chain of products (the JS kernels' order). */
-function productChain(size, row, coordinate) {
-  let e = `(f64x2.mul ${splat('mat', row * size)} ${coordinate(0)})`;
-  for (let j = 1; j < size; j++) e = `(f64x2.add ${e} (f64x2.mul ${splat('mat', row * size + j)} ${coordinate(j)}))`;
-  return e;
 }
 
 /** Local declarations of a body plus the fixed i32 locals. */
@@ -97,7 +112,7 @@ function real1Blocks(tp, sfx) {
   }
   for (const i of tp ? [0, 2, 3] : [0, 1, 2, 3]) {
     for (let j = 0; j < 4; j++) {
-      b.set('mij', splat('matL', 4 * i + j));
+      b.set('mij', `(v128.load offset=${MAT_SPLATS + 16 * (4 * i + j)} (local.get $scratch))`);
       for (const s of sfx) {
         const prod = `(f64x2.mul ${get('mij')} ${get(u[s][j])})`;
         b.set(`y${i}${s}`, j === 0 ? prod : `(f64x2.add ${get(`y${i}${s}`)} ${prod})`);
@@ -116,16 +131,16 @@ function real1Blocks(tp, sfx) {
 /** The 1-qubit kernels: block rows [start, end) of the rest rows (target bit zero), one block per step. */
 function real1(tp) {
   const one = real1Blocks(tp, ['A']);
-  const i32s = ['matL', 'D', 'm', 'rowBytes', 'idx', 'r', 'b0', 'b1', 'c', 'mb', 'p00A', 'p01A', 'p10A', 'p11A'];
+  const i32s = ['si', 'D', 'm', 'rowBytes', 'idx', 'r', 'b0', 'b1', 'c', 'mb', 'p00A', 'p01A', 'p10A', 'p11A'];
   return `
-  ;; rho -> Phi(rho) on qubit q, real-form M' (4 x 4 f64) at mat; rest rows [start, end); 4 bytes of scratch
+  ;; rho -> Phi(rho) on qubit q, real-form M' (4 x 4 f64) at mat; rest rows [start, end); scratch: SCRATCH_BYTES
   (func (export "${tp ? 'real1tp' : 'real1'}") (param $rho i32) (param $n i32) (param $q i32) (param $mat i32) (param $scratch i32) (param $start i32) (param $end i32)
     ${declare(i32s, one)}
     (local.set $D (i32.shl (i32.const 1) (local.get $n)))
     (local.set $m (i32.shl (i32.const 1) (i32.sub (i32.sub (local.get $n) (i32.const 1)) (local.get $q))))
     (local.set $rowBytes (i32.shl (local.get $D) (i32.const 4)))
     (local.set $mb (i32.shl (local.get $m) (i32.const 4)))
-    (i32.store offset=${MAT_SLOT} (local.get $scratch) (local.get $mat))
+    ${splatMatrix(4)}
     (local.set $idx (local.get $start))
     (block $rows_done
       (loop $rows
@@ -144,8 +159,6 @@ function real1(tp) {
             (local.set $p01A (i32.add (local.get $p00A) (local.get $mb)))
             (local.set $p10A (i32.add (local.get $b1) (i32.shl (local.get $c) (i32.const 4))))
             (local.set $p11A (i32.add (local.get $p10A) (local.get $mb)))
-            ;; the matrix address, reloaded every step (see real2)
-            (local.set $matL (i32.load offset=${MAT_SLOT} (local.get $scratch)))
             ${one.lines.join('\n            ')}
             (local.set $c (i32.and (i32.add (i32.or (local.get $c) (local.get $m)) (i32.const 1)) (i32.xor (local.get $m) (i32.const -1))))
             (br $cols)))
@@ -188,7 +201,7 @@ function real2Blocks(sfx) {
   for (let t = 0; t < TERMS_PER_STEP; t++) {
     sfx.forEach((s, sIndex) => terms.set(`uj${s}`, `(v128.load offset=${256 * sIndex + 16 * t} (local.get $pu))`));
     for (let k = 0; k < 4; k++) {
-      terms.set('mij', `(v128.load64_splat offset=${128 * k + 8 * t} (local.get $pk))`);
+      terms.set('mij', `(v128.load offset=${256 * k + 16 * t} (local.get $pk))`);
       for (const s of sfx) terms.set(`acc${k}${s}`, `(f64x2.add ${get(`acc${k}${s}`)} (f64x2.mul ${get('mij')} ${get(`uj${s}`)}))`);
     }
   }
@@ -198,7 +211,7 @@ function real2Blocks(sfx) {
   sfx.forEach((s, sIndex) => {
     for (let k = 0; k < 4; k++) stores.push(`(v128.store offset=${512 + 256 * sIndex + 16 * k} (local.get $py) ${get(`acc${k}${s}`)})`);
   });
-  b.emit(`(local.set $pm (local.get $matL))
+  b.emit(`(local.set $pm (i32.add (local.get $scratch) (i32.const ${MAT_SPLATS})))
                 (local.set $py (local.get $scratch))
                 (loop $groups
                   ${groupsBody.lines.join('\n                  ')}
@@ -206,12 +219,12 @@ function real2Blocks(sfx) {
                   (local.set $pk (local.get $pm))
                   (loop $terms
                     ${terms.lines.join('\n                    ')}
-                    (local.set $pk (i32.add (local.get $pk) (i32.const ${8 * TERMS_PER_STEP})))
+                    (local.set $pk (i32.add (local.get $pk) (i32.const ${16 * TERMS_PER_STEP})))
                     (local.set $pu (i32.add (local.get $pu) (i32.const ${16 * TERMS_PER_STEP})))
                     (br_if $terms (i32.lt_u (local.get $pu) (local.get $uEnd))))
                   ${stores.join('\n                  ')}
-                  ;; next group: four rows further in M'
-                  (local.set $pm (i32.add (local.get $pm) (i32.const 512)))
+                  ;; next group: four rows further in the splatted M'
+                  (local.set $pm (i32.add (local.get $pm) (i32.const 1024)))
                   (local.set $py (i32.add (local.get $py) (i32.const 64)))
                   (br_if $groups (i32.lt_u (local.get $py) (local.get $yEnd))))`);
   sfx.forEach((s, sIndex) => {
@@ -234,7 +247,8 @@ function real2Blocks(sfx) {
     // mirror: ρ[c + o_c][r + o_a] = conj(z_ac), unless the block is on the diagonal (c = r)
     const mirror = [];
     for (let c = 0; c < 4; c++)
-      for (let a = 0; a < 4; a++) mirror.push(`(v128.store (i32.add (local.get $cb${c}) (local.get $ro${a}${s})) (v128.xor ${get(Z[`z${a}${c}${s}`])} ${SIGN_IM}))`);
+      for (let a = 0; a < 4; a++) mirror.push(`(v128.store (i32.add (local.get $cb${c}) (local.get $ro${a}${s})) (v128.xor ${get(Z[`z${a}${c}${s}`])} ${get('signIm')}))`);
+    b.set('signIm', `(v128.load offset=${SIGN_SLOT} (local.get $scratch))`);
     b.emit(`(if (i32.ne (local.get $c) (local.get $r${s})) (then
                   ${mirror.join('\n                  ')}))`);
   });
@@ -252,7 +266,7 @@ function real2() {
   const body = new Body();
   for (const l of [...two.locals, ...one.locals]) body.locals.add(l);
   const nextRest = (x) => `(i32.and (i32.add (i32.or ${x} (local.get $tm)) (i32.const 1)) (i32.xor (local.get $tm) (i32.const -1)))`;
-  const i32s = ['matL', 'pm', 'pk', 'pu', 'py', 'uEnd', 'yEnd', 'D', 'rowBytes', 'm1', 'm2', 'lo', 'hi', 'tm', 'o1', 'o2', 'o3', 'R', 'tileNo', 't0', 't1', 'r0', 'j', 'i', 'iEnd', 'c', 'rA', 'rB'];
+  const i32s = ['si', 'pm', 'pk', 'pu', 'py', 'uEnd', 'yEnd', 'D', 'rowBytes', 'm1', 'm2', 'lo', 'hi', 'tm', 'o1', 'o2', 'o3', 'R', 'tileNo', 't0', 't1', 'r0', 'j', 'i', 'iEnd', 'c', 'rA', 'rB'];
   const i32b = ['c0', 'c1', 'c2', 'c3', 'cb0', 'cb1', 'cb2', 'cb3'];
   for (const s of ['A', 'B']) for (let k = 0; k < 4; k++) i32b.push(`rb${k}${s}`, `ro${k}${s}`);
   // rb_a, cb_a: byte address of row (r + o_a) / (c + o_a); c_b, ro_b: byte offset of column (c + o_b) / (r + o_b)
@@ -262,7 +276,7 @@ function real2() {
   const rowsOf = (s) => [0, 1, 2, 3].flatMap((k) => [rowAddr(`rb${k}${s}`, `r${s}`, offs[k]), colOff(`ro${k}${s}`, `r${s}`, offs[k])]).join('\n                ');
   return `
   ;; rho -> Phi(rho) on qubits (q1, q2), real-form M' (16 x 16 f64) at mat, rho Hermitian;
-  ;; tiles [tileStart, tileEnd) of \`tile\` rest rows, 1028 bytes of scratch at scratch
+  ;; tiles [tileStart, tileEnd) of \`tile\` rest rows; scratch: SCRATCH_BYTES at scratch
   (func (export "real2") (param $rho i32) (param $n i32) (param $q1 i32) (param $q2 i32) (param $mat i32) (param $scratch i32) (param $tile i32) (param $tileStart i32) (param $tileEnd i32)
     ${declare([...i32s, ...i32b], body)}
     (local.set $D (i32.shl (i32.const 1) (local.get $n)))
@@ -277,7 +291,8 @@ function real2() {
     (local.set $o2 (local.get $m1))
     (local.set $o3 (local.get $tm))
     (local.set $R (i32.shr_u (local.get $D) (i32.const 2)))
-    (i32.store offset=${MAT_SLOT} (local.get $scratch) (local.get $mat))
+    ${splatMatrix(16)}
+    (v128.store offset=${SIGN_SLOT} (local.get $scratch) ${SIGN_IM})
     (local.set $uEnd (i32.add (local.get $scratch) (i32.const 256)))
     (local.set $yEnd (i32.add (local.get $scratch) (i32.const 256)))
     (local.set $tileNo (local.get $tileStart))
@@ -308,10 +323,6 @@ function real2() {
               (loop $blocks
                 (br_if $blocks_done (i32.ge_u (local.get $i) (local.get $iEnd)))
                 ${rowsOf('A')}
-                ;; the matrix address, reloaded from scratch for every step: were it loop-invariant,
-                ;; the optimising compiler would hoist all 256 address computations out of the loop
-                ;; and spill them (measured: twice slower)
-                (local.set $matL (i32.load offset=${MAT_SLOT} (local.get $scratch)))
                 (if (i32.lt_u (i32.add (local.get $i) (i32.const 1)) (local.get $iEnd))
                   (then
                     ;; two blocks: rows rA and the next rest row rB, same columns

@@ -1,13 +1,14 @@
 // Stage breakdown of one whole `fray run` process for `npm run bench`:
 //   node test/bench/stages.mjs FILE THREADS FAMILY   (FAMILY: wasm | js)
 // prints one JSON object of milliseconds per stage, in the order a run goes through them:
-// Node's own start (until this script runs), importing the CLI bundle (what bin/fray.js
-// loads), reading and validating the YAML, schedule and program, plan (build and pack), waiting
+// Node's own start (until this script runs), loading the CLI bundle (as bin/fray.js does,
+// through the code cache), reading and validating the YAML, schedule and program, plan (build and pack), waiting
 // for kernels (worker threads started and warmed; for JS kernels also the JIT wait), the passes
 // over ρ, and results (ideal run, figures, JSON text). The stages after the import call the
 // library modules of dist/ the way src/api/simulate.ts does.
 const start = performance.now();
-await import('../../dist/bundle/cli.js');
+const { loadCli } = await import('../../bin/loadCli.js');
+loadCli();
 const imported = performance.now();
 const { loadCircuit } = await import('../../dist/api/loadCircuit.js');
 const { measuredQubits, scheduleCircuit } = await import('../../dist/api/simulate.js');

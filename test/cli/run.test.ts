@@ -116,6 +116,13 @@ describe('fray run', () => {
     }
   });
 
+  it('bin/fray.js starts the CLI bundle from the code cache built at install (V8 accepts it)', () => {
+    const probe = "import('./bin/loadCli.js').then((m) => console.log(JSON.stringify({ rejected: m.loadCli().cacheRejected, main: typeof m.loadCli().main })))";
+    const r = spawnSync(process.execPath, ['--input-type=module', '-e', probe], { encoding: 'utf8' });
+    expect(r.status, r.stderr).toBe(0);
+    expect(JSON.parse(r.stdout)).toEqual({ rejected: false, main: 'function' });
+  });
+
   it('--help explains every option with an example', async () => {
     const top = await fray('--help');
     expect(top.code).toBe(0);
