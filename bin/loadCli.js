@@ -16,10 +16,12 @@ const cacheFile = fileURLToPath(new URL('../dist/bundle/cli.cache', import.meta.
  */
 export function loadCli(writeCache = false) {
   const cachedData = !writeCache && existsSync(cacheFile) ? readFileSync(cacheFile) : undefined;
-  const source = `(function (exports, require, module, __filename, __dirname) {${readFileSync(file, 'utf8')}\n})`;
+  const source = `(function (exports, require, module, __filename, __dirname, __frayImport) {${readFileSync(file, 'utf8')}\n})`;
   const script = new Script(source, { filename: file, ...(cachedData !== undefined ? { cachedData } : {}) });
   const cli = { exports: {} };
-  script.runInThisContext()(cli.exports, createRequire(file), cli, file, dirname(file));
+  // the bundle's import() of ES-module-only packages (scripts/bundle.mjs) comes here
+  const frayImport = (specifier) => import(specifier);
+  script.runInThisContext()(cli.exports, createRequire(file), cli, file, dirname(file), frayImport);
   return {
     ...cli.exports,
     cacheRejected: cachedData !== undefined && script.cachedDataRejected === true,

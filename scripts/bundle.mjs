@@ -13,11 +13,13 @@
 // worker script is the CLI bundle's sibling, where src/engine/threadPool.ts looks first.
 import { build } from 'esbuild';
 import { spawnSync } from 'node:child_process';
-import { rmSync } from 'node:fs';
+import { readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 
 const root = fileURLToPath(new URL('../', import.meta.url));
 const common = { bundle: true, platform: 'node', target: 'node20', logLevel: 'warning' };
+/** ES-module-only packages the CLI import()s lazily; left out of the CommonJS bundle. */
+const EXTERNAL_ESM = ['vega', 'vega-lite'];
 rmSync(root + 'dist/bundle', { recursive: true, force: true });
 
 await build({
@@ -25,10 +27,22 @@ await build({
   entryPoints: [root + 'src/cli/main.ts'],
   outfile: root + 'dist/bundle/cli.cjs',
   format: 'cjs',
+  // the plotting libraries are ES modules with top-level await that only plotting commands
+  // import(); they stay in node_modules, imported by bin/loadCli.js for the bundle (below)
+  // piscina starts its workers from files next to its own code, so it stays in node_modules too
+  external: [...EXTERNAL_ESM, 'piscina'],
   // the sources locate files relative to import.meta.url: give them the bundle's own URL
   define: { 'import.meta.url': '__frayModuleUrl' },
   banner: { js: "const __frayModuleUrl = require('node:url').pathToFileURL(__filename).href;" },
 });
+// a script started by vm.Script cannot import() reliably once it comes from a code cache, so the
+// bundle asks bin/loadCli.js (an ES module) to import the external packages for it
+const cliFile = root + 'dist/bundle/cli.cjs';
+let cli = readFileSync(cliFile, 'utf8');
+for (const name of EXTERNAL_ESM) cli = cli.replaceAll(`import("${name}")`, `__frayImport("${name}")`);
+if (/\bimport\(/.test(cli)) throw new Error('bundle: a dynamic import() is left in dist/bundle/cli.cjs');
+writeFileSync(cliFile, cli);
+
 await build({
   ...common,
   entryPoints: [root + 'src/engine/threadWorker.ts'],

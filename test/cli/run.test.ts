@@ -1,4 +1,5 @@
 import { execFileSync, spawnSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { fray, tempFile, LOCATED } from '../helpers/cli.js';
 
@@ -121,6 +122,15 @@ describe('fray run', () => {
     const r = spawnSync(process.execPath, ['--input-type=module', '-e', probe], { encoding: 'utf8' });
     expect(r.status, r.stderr).toBe(0);
     expect(JSON.parse(r.stdout)).toEqual({ rejected: false, main: 'function' });
+  });
+
+  it('the bundled command (bin/fray.js) runs sweep workers and plots, whose packages stay outside the bundle', () => {
+    const sweep = spawnSync(process.execPath, ['bin/fray.js', 'sweep', 'circuits/ghz5.yaml', '--vary', 'noise-scale=0..1:3', '--jobs', '2'], { encoding: 'utf8' });
+    expect(sweep.status, sweep.stderr).toBe(0);
+    const svg = tempFile('cmp.svg', '');
+    const plot = spawnSync(process.execPath, ['bin/fray.js', 'compare', 'circuits/variants/ghz5-left.yaml', 'circuits/variants/ghz5-right.yaml', '--plot', svg], { encoding: 'utf8' });
+    expect(plot.status, plot.stderr).toBe(0);
+    expect(readFileSync(svg, 'utf8')).toMatch(/^<svg/);
   });
 
   it('--help explains every option with an example', async () => {
