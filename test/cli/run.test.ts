@@ -124,7 +124,9 @@ describe('fray run', () => {
     expect(JSON.parse(r.stdout)).toEqual({ rejected: false, main: 'function' });
   });
 
-  it('the bundled command (bin/fray.js) runs sweep workers and plots, whose packages stay outside the bundle', () => {
+  it('the bundled command (bin/fray.js) runs sweep workers, plots and OpenQASM, whose packages load from outside the bundle', () => {
+    const qasm = spawnSync(process.execPath, ['bin/fray.js', 'run', 'circuits/qasm/ghz-wait.qasm', '--json'], { encoding: 'utf8' });
+    expect(qasm.status, qasm.stderr).toBe(0);
     const sweep = spawnSync(process.execPath, ['bin/fray.js', 'sweep', 'circuits/ghz5.yaml', '--vary', 'noise-scale=0..1:3', '--jobs', '2'], { encoding: 'utf8' });
     expect(sweep.status, sweep.stderr).toBe(0);
     const svg = tempFile('cmp.svg', '');
