@@ -12,6 +12,7 @@ import { applyDiagonal } from './kernelDiagonal.js';
 import { applyGeneral } from './kernelGeneral.js';
 import { applyReal1, applyReal1Tp } from './kernelReal1.js';
 import { applyReal2 } from './kernelReal2.js';
+import { checkViewLength } from './sharedView.js';
 
 /**
  * Numeric ids of the kernels: real-form 1-qubit, real-form mirrored 2-qubit, diagonal batch,
@@ -52,8 +53,14 @@ export function encodeCall(call: KernelCall, words: Int32Array, at: number): num
   return i;
 }
 
-/** Executes the call encoded at words[at …] on the n-qubit ρ (`data`), for part `part` of `parts` (./partition.ts). */
+/**
+ * Executes the call encoded at words[at …] on the n-qubit ρ (`data`, 2·4^n numbers), for part
+ * `part` of `parts` (./partition.ts). Throws ViewLengthError when `data` is not the size of an
+ * n-qubit ρ, so a thread whose view lost its length (./sharedView.ts) fails loudly instead of
+ * leaving its rows unwritten.
+ */
 export function executeCall(data: Float64Array, n: number, words: Int32Array, at: number, arena: Float64Array, part: number, parts: number): void {
+  checkViewLength(data, 2 * 4 ** n, `the ${n}-qubit density matrix of part ${part}`);
   const id = words[at]!;
   const off = words[at + 1]!;
   const kA = words[at + 3]!;

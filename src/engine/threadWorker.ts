@@ -18,8 +18,16 @@ import {
   CTRL_READY,
 } from './threadControl.js';
 import { awaitOptimisedKernels } from './warmKernels.js';
+import { openFloat64View, openInt32View, type SharedViewMessage } from './sharedView.js';
 
-/** The buffers a worker works on, as posted by ThreadPool.attach. */
+/** The buffers a worker works on, as posted by ThreadPool.attach (./sharedView.ts says why not as views). */
+interface AttachMessage {
+  readonly data: SharedViewMessage;
+  readonly arena: SharedViewMessage;
+  readonly words: SharedViewMessage;
+}
+
+/** The views a worker works on, rebuilt from an AttachMessage with their lengths checked. */
 interface Attachment {
   readonly data: Float64Array;
   readonly arena: Float64Array;
@@ -43,8 +51,14 @@ function workerLoop(): void {
     try {
       if (cmd === CMD_ATTACH) {
         const msg = receiveMessageOnPort(port);
-        current = msg?.message as Attachment | undefined;
-        if (current === undefined) throw new Error('no attachment posted');
+        const posted = msg?.message as AttachMessage | undefined;
+        current = undefined;
+        if (posted === undefined) throw new Error('no attachment posted');
+        current = {
+          data: openFloat64View(posted.data, 'the density matrix'),
+          arena: openFloat64View(posted.arena, 'the arena'),
+          words: openInt32View(posted.words, 'the call words'),
+        };
       } else if (cmd === CMD_DETACH) {
         current = undefined;
       } else if (current !== undefined) {
