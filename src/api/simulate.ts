@@ -10,7 +10,8 @@ import { WARM_MIN_QUBITS, warmKernels } from '../engine/warmKernels.js';
 import { buildPlan } from '../plan/buildPlan.js';
 import { compilePlan } from '../plan/compilePlan.js';
 import type { Plan } from '../plan/plan.js';
-import { InputError, ProblemList, type Problem } from '../format/problem.js';
+import { formatDuration, MAX_DURATION_NS } from '../format/duration.js';
+import { InputError, ProblemList, warningJson, type Problem, type WarningJson } from '../format/problem.js';
 import type { NoiseProfile } from '../noise/profile.js';
 import { buildProgram, type Program } from '../program/program.js';
 import type { IdealState } from '../results/fidelity.js';
@@ -62,7 +63,8 @@ export interface RunResult {
   readonly shots?: number;
   readonly seed?: number;
   readonly counts?: Figures['counts'];
-  readonly warnings: readonly string[];
+  /** Each distinct warning once, with how often it arose. */
+  readonly warnings: readonly WarningJson[];
 }
 
 /** Everything one run produced: the stages' data and the result object. */
@@ -133,7 +135,7 @@ function usesReference(options: SimulateOptions): boolean {
 function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: Schedule; program: Program; problems: ProblemList } {
   const { circuit, profile } = loaded;
   const problems = new ProblemList();
-  for (const w of loaded.warnings) problems.items.push(w);
+  for (const w of loaded.warnings) problems.add(w);
   const n = circuit.register.n;
   for (const p of options.observe ?? []) {
     const bad = pauliStringProblem(p, n);
@@ -141,6 +143,11 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
     if (bad !== undefined) problems.error(circuit.qubitsAt, 'bad-pauli', `--observe ${p}: ${bad}`);
   }
   const schedule = scheduleCircuit(circuit, profile);
+  const overrun = schedule.items.find((it) => !(it.end <= MAX_DURATION_NS));
+  if (overrun !== undefined) {
+    problems.error(overrun.op.at, 'too-long', `step ${overrun.op.step + 1} ends after ${formatDuration(overrun.end)}; a circuit may last at most ${formatDuration(MAX_DURATION_NS)}`);
+    problems.throwIfErrors();
+  }
   const program = buildProgram(circuit, profile, schedule, problems);
   problems.throwIfErrors();
   return { schedule, program, problems };
@@ -218,7 +225,7 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     bloch: figures.bloch,
     ...(figures.observables !== undefined ? { observables: figures.observables } : {}),
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED, counts: figures.counts } : {}),
-    warnings: problems.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`),
+    warnings: problems.warnings.map(warningJson),
   };
   return { circuit, profile, schedule, program, ...(plan !== undefined ? { plan } : {}), rho, ideal, result, warnings: problems.warnings };
 }

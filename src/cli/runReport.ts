@@ -78,7 +78,7 @@ export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Sty
   if (r.warnings.length > 0) {
     lines.push('');
     lines.push(style.yellow(style.bold('Warnings')));
-    for (const w of r.warnings) lines.push(style.yellow(`  ${w}`));
+    for (const w of r.warnings) lines.push(style.yellow(`  ${w.file}:${w.line}:${w.col}: ${w.message}${w.count > 1 ? ` (${w.count} times)` : ''}`));
   }
   return lines.join('\n') + '\n';
 }

@@ -1,7 +1,7 @@
 import type { Circuit, NoiseOverride, Operation } from '../circuit/circuit.js';
 import type { Instruction } from '../engine/instruction.js';
 import { plainKinds, type NoiseKindsSpec } from '../format/noiseKindsSpec.js';
-import { ProblemList, type SourcePosition } from '../format/problem.js';
+import { ProblemList } from '../format/problem.js';
 import { CustomChannelError, ErrorSolveError, gateNoise, idleChannel, type QubitDecay } from '../noise/gateNoise.js';
 import type { NoiseProfile } from '../noise/profile.js';
 import type { IdleWindow, Schedule } from '../schedule/schedule.js';
@@ -38,14 +38,6 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
   const ideal: Instruction[] = [];
   const decay = (q: number): QubitDecay => profile.qubits[q]!;
   const channels = circuit.channels;
-  const seen = new Set<string>();
-  const warnOnce = (at: SourcePosition, code: string, message: string): void => {
-    const key = `${at.line}:${at.col}:${message}`;
-    if (!seen.has(key)) {
-      seen.add(key);
-      problems.warn(at, code, message);
-    }
-  };
   const emitIdle = (w: IdleWindow): void => {
     if (profile.idle !== 'thermal') return;
     const ch = idleChannel(decay(w.qubit), w.end - w.start);
@@ -71,7 +63,10 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
         kinds: plainKinds(kinds),
         channels,
       });
-      if (gn.warning !== undefined) warnOnce(kinds.error?.at ?? op.at, 'error-below-coherence-limit', `${label}: ${gn.warning}`);
+      // located at the `error:` that asks for it and worded without the step, so the
+      // ProblemList counts the applications of one entry as one warning
+      const what = op.kind === 'gate' ? `'${op.name}'` : op.kind;
+      if (gn.warning !== undefined) problems.warn(kinds.error?.at ?? op.at, 'error-below-coherence-limit', `${what}: ${gn.warning}`);
       for (const c of gn.channels) {
         noisy.push({ op: 'channel', qubits: c.targets.map((t) => qubits[t]!), kraus: c.kraus });
         origins.push({ step: op.step, what: c.source === 'thermal' ? `thermal during ${label}` : c.source });
