@@ -8,7 +8,8 @@ import { UsageError, type CliIO } from './main.js';
 
 /** `fray run FILE`: parses the options, runs the simulation, writes the report or JSON in one piece. */
 export async function runCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
-  const set: Record<string, string> = {};
+  // no prototype: `--set __proto__=1` must be a name like any other, not reach Object.prototype
+  const set: Record<string, string> = Object.create(null) as Record<string, string>;
   for (const s of (opts['set'] as string[] | undefined) ?? []) {
     const eq = s.indexOf('=');
     if (eq <= 0) throw new UsageError(`--set ${s}: expected name=value, e.g. --set theta=0.4`);

@@ -192,7 +192,7 @@ export class GateLibrary {
     problems: ProblemList,
   ): CMatrix | undefined {
     // The composite's own parameters shadow the circuit's.
-    const env: Record<string, number> = { ...this.circuitParams };
+    const env: Record<string, number> = Object.assign(Object.create(null) as Record<string, number>, this.circuitParams);
     params.forEach((p, i) => (env[p] = args[i]!));
     const parts: { matrix: CMatrix; targets: readonly number[] }[] = [];
     for (const s of body) {

@@ -122,3 +122,24 @@ describe('issue 13 bug 7: values with newlines', () => {
     expectInputError(r, ['3:13']);
   });
 });
+
+describe('issue 13 bug 8: parameters named like object properties', () => {
+  for (const name of ['constructor', 'toString', 'hasOwnProperty', '__proto__']) {
+    it(`a parameter named '${name}' is a parameter like any other, also under --set`, async () => {
+      const file = tempFile('c.yaml', `qubits: 1\nparams: {${name}: 0.5}\nsteps:\n  - rx: 0\n    angle: ${name}\n`);
+      const r = await fray('run', file, '--json');
+      expect(r.code, r.err).toBe(0);
+      // ⟨0|rx(θ)|0⟩ gives P(0) = cos²(θ/2) (Nielsen & Chuang §4.2, eq. 4.4)
+      expect(JSON.parse(r.out).probabilities.noisy['0']).toBeCloseTo(Math.cos(0.25) ** 2, 12);
+      const s = await fray('run', file, '--json', '--set', `${name}=1`);
+      expect(s.code, s.err).toBe(0);
+      expect(JSON.parse(s.out).probabilities.noisy['0']).toBeCloseTo(Math.cos(0.5) ** 2, 12);
+    });
+  }
+
+  it('--set __proto__=1 on a circuit without that parameter is refused, not ignored', async () => {
+    const r = await fray('run', tempFile('c.yaml', 'qubits: 1\nparams: {a: 0.5}\nsteps:\n  - rx: 0\n    angle: a\n'), '--set', '__proto__=1');
+    const [line] = expectInputError(r, ['2:9']);
+    expect(line).toContain("no parameter '__proto__'");
+  });
+});
