@@ -1,10 +1,10 @@
-import { readFileSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import type { Circuit } from '../circuit/circuit.js';
 import { readCircuit } from '../format/circuitFile.js';
 import { fileStart, InputError, ProblemList, type Problem, type SourcePosition } from '../format/problem.js';
 import { readProfile, type ProfileSpec } from '../format/profileSpec.js';
 import { parseYamlTree } from '../format/yamlTree.js';
+import { readInputFile } from './readInput.js';
 import { resolveProfile, type NoiseProfile } from '../noise/profile.js';
 
 /** Options for reading a circuit and its noise profile. */
@@ -20,18 +20,6 @@ export interface LoadedCircuit {
   readonly circuit: Circuit;
   readonly profile: NoiseProfile;
   readonly warnings: readonly Problem[];
-}
-
-/** Reads a file's text, or records a located problem. */
-function readText(path: string, at: SourcePosition, what: string, problems: ProblemList): string | undefined {
-  try {
-    return readFileSync(path, 'utf8');
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : code === 'EACCES' ? 'permission denied' : String((e as Error).message);
-    problems.error(at, 'cannot-read', `cannot read ${what} '${path}': ${why}`);
-    return undefined;
-  }
 }
 
 /** Parses a noise profile file's text (a device file). */
@@ -75,7 +63,7 @@ export function parseCircuitText(
 /** Reads and validates a circuit file and its device profile from disk; throws InputError on bad input. */
 export function loadCircuit(path: string, options: LoadOptions = {}): LoadedCircuit {
   const problems = new ProblemList();
-  const text = readText(path, fileStart(path), 'circuit file', problems);
+  const text = readInputFile(path, fileStart(path), 'circuit file', problems);
   if (text === undefined) throw new InputError(problems.errors);
   const loaded = parseCircuitText(text, path, problems, {
     ...options,
@@ -83,7 +71,7 @@ export function loadCircuit(path: string, options: LoadOptions = {}): LoadedCirc
       // A circuit's `device:` is relative to the circuit file; --device to the working directory.
       const full = options.device !== undefined ? devicePath : resolve(dirname(path), devicePath);
       const shown = options.device !== undefined ? devicePath : relativeShown(path, devicePath);
-      const t = readText(full, at, 'device profile', problems);
+      const t = readInputFile(full, at, 'device profile', problems);
       return t === undefined ? undefined : { text: t, file: shown };
     },
   });

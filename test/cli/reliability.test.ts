@@ -4,11 +4,17 @@
  * never an internal error (exit 1), a wrong answer or a hang. Bug 1 (the 4 GiB shared ρ) is
  * covered in test/engine/threadPool.test.ts; the seeded fuzz test is test/cli/fuzz.test.ts.
  */
-import { describe, expect, it } from 'vitest';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it, vi } from 'vitest';
+import { Alias } from 'yaml';
+import { readInputFile } from '../../src/api/readInput.js';
 import { thermalRelaxationChannel } from '../../src/channels/builtins.js';
 import { readChannelDefinitions } from '../../src/format/channelDefinitions.js';
 import { formatProblem, ProblemList } from '../../src/format/problem.js';
-import { parseYamlTree } from '../../src/format/yamlTree.js';
+import { MAX_EXPANDED_NODES, MAX_INPUT_BYTES, MAX_NESTING, parseYamlTree } from '../../src/format/yamlTree.js';
 import { fray, LOCATED, tempFile } from '../helpers/cli.js';
 
 /** Asserts the input-error contract and that the problems are at exactly `where` (FILE-relative LINE:COL each). */
@@ -141,5 +147,94 @@ describe('issue 13 bug 8: parameters named like object properties', () => {
     const r = await fray('run', tempFile('c.yaml', 'qubits: 1\nparams: {a: 0.5}\nsteps:\n  - rx: 0\n    angle: a\n'), '--set', '__proto__=1');
     const [line] = expectInputError(r, ['2:9']);
     expect(line).toContain("no parameter '__proto__'");
+  });
+});
+
+describe('issue 13 bug 9: alias expansion cost', () => {
+  it('aliases are resolved in one pass over the document, never by a whole-document walk per alias', () => {
+    const resolve = vi.spyOn(Alias.prototype, 'resolve');
+    try {
+      const lines = ['qubits: 1', 'params:'];
+      for (let i = 0; i < 300; i++) lines.push(`  p${i}: &a${i} ${i}`);
+      // a later anchor of the same name wins for aliases after it (YAML 1.2, §7.1: the most recent anchor)
+      lines.push('  q: &a0 1000', 'list:');
+      for (let i = 0; i < 300; i++) lines.push(`  - *a${i}`);
+      const problems = new ProblemList();
+      const root = parseYamlTree(lines.join('\n') + '\n', 'c.yaml', problems);
+      expect(problems.items).toEqual([]);
+      expect(resolve).not.toHaveBeenCalled();
+      const list = root!.kind === 'map' ? root!.entries.find((e) => e.key === 'list')!.value : root!;
+      const values = list.kind === 'seq' ? list.items.map((n) => (n.kind === 'scalar' ? n.value : null)) : [];
+      expect(values).toEqual([1000, ...Array.from({ length: 299 }, (_, i) => i + 1)]);
+    } finally {
+      resolve.mockRestore();
+    }
+  });
+
+  it('an expansion bomb under a 150-deep map is refused by the node budget', () => {
+    let text = 'qubits: 1\nsteps:\n  - h: 0\nx:\n';
+    for (let d = 0; d < 150; d++) text += `${'  '.repeat(d + 1)}k${d}:\n`;
+    const pad = '  '.repeat(151);
+    text += `${pad}a0: &a0 [x, x, x, x, x, x, x, x, x, x]\n`;
+    for (let i = 1; i < 12; i++) text += `${pad}a${i}: &a${i} [${Array(10).fill(`*a${i - 1}`).join(', ')}]\n`;
+    const problems = new ProblemList();
+    expect(parseYamlTree(text, 'c.yaml', problems)).toBeUndefined();
+    expect(problems.items.map(formatProblem)).toEqual([`c.yaml:1:1: the document expands to more than ${MAX_EXPANDED_NODES} extra nodes through anchors and aliases; refusing to expand it`]);
+  });
+});
+
+describe('issue 13 bug 10: unbounded reads', () => {
+  it('a device, a FIFO or a folder is refused without reading it, as circuit, device or channel file', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'fray-fifo-'));
+    const fifo = join(dir, 'pipe.yaml');
+    execFileSync('mkfifo', [fifo]);
+    const ok = tempFile('ok.yaml', 'qubits: 1\nsteps:\n  - h: 0\n');
+    for (const args of [['run', ok, '--device', '/dev/zero'], ['run', fifo], ['run', ok, '--device', fifo], ['channel', '/dev/zero'], ['channel', dir]]) {
+      const r = await fray(...args);
+      const [line] = expectInputError(r, ['1:1']);
+      expect(line).toMatch(/cannot read .*(not a regular file|it is a folder)/);
+    }
+    const dev = await fray('run', tempFile('c.yaml', 'qubits: 1\ndevice: /dev/zero\nsteps:\n  - h: 0\n'));
+    expectInputError(dev, ['2:9']);
+  });
+
+  it('a file over the limit is refused after reading at most the limit plus one byte', () => {
+    const problems = new ProblemList();
+    const big = tempFile('big.yaml', '#'.repeat(MAX_INPUT_BYTES + 10));
+    expect(readInputFile(big, { file: big, line: 1, col: 1 }, 'circuit file', problems)).toBeUndefined();
+    expect(problems.items[0]!.code).toBe('file-too-large');
+  });
+});
+
+describe('issue 13 bug 11: many plain steps', () => {
+  it('100 000 steps without anchors are read (the alias budget counts only nodes that aliases add)', () => {
+    const problems = new ProblemList();
+    const root = parseYamlTree('qubits: 1\nsteps:\n' + '  - x: 0\n'.repeat(100_000), 'c.yaml', problems);
+    expect(problems.items).toEqual([]);
+    const steps = root!.kind === 'map' ? root!.entries[1]!.value : root!;
+    expect(steps.kind === 'seq' ? steps.items.length : 0).toBe(100_000);
+  });
+});
+
+describe('issue 13 bug 12: syntax errors and deep nesting read as located input errors', () => {
+  it('an error after a block scalar is placed inside its line', () => {
+    const text = 'q #xubits: 1\nname: |\n  first line\n  second line\nsteps:\n  - h: 0\n';
+    const problems = new ProblemList();
+    parseYamlTree(text, 'c.yaml', problems);
+    const lines = text.split('\n');
+    expect(problems.items.length).toBeGreaterThan(0);
+    for (const p of problems.items) {
+      expect(p.line).toBeLessThanOrEqual(lines.length);
+      expect(p.col).toBeLessThanOrEqual(lines[p.line - 1]!.length + 1);
+    }
+    expect(problems.items.map((p) => `${p.line}:${p.col}`)).toContain('5:1');
+  });
+
+  it('nesting 10 000 deep is refused in plain language where it passes the limit', async () => {
+    const r = await fray('run', tempFile('c.yaml', `qubits: 1\nsteps: ${'['.repeat(10_000)}${']'.repeat(10_000)}\n`));
+    const [line] = expectInputError(r, [`2:${8 + MAX_NESTING}`]);
+    expect(line).toContain(`nests deeper than ${MAX_NESTING} levels`);
+    const s = await fray('run', tempFile('c.yaml', `qubits: 1\nsteps: ${'['.repeat(300)}${']'.repeat(300)}\n`));
+    expect(expectInputError(s, [`2:${8 + MAX_NESTING}`])[0]).toContain('nests deeper');
   });
 });
