@@ -3,6 +3,7 @@ import { formatPlan, planToJson } from '../plan/formatPlan.js';
 import { parseByteSize } from '../engine/memory.js';
 import { renderRunReport } from './runReport.js';
 import { toJson } from './json.js';
+import { runJson } from './runJson.js';
 import { makeStyle, wantColor } from './style.js';
 import { UsageError, type CliIO } from './main.js';
 
@@ -39,7 +40,7 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
   }
   const sim = simulate(file, options);
   if (opts['json']) {
-    io.stdout.write(toJson(sim.result) + '\n');
+    io.stdout.write(toJson(runJson(sim, { showSchedule: opts['schedule'] === true, showState: opts['state'] === true })) + '\n');
     return;
   }
   const color = wantColor(process.stdout, opts['color'] !== false) && io.stdout === process.stdout;

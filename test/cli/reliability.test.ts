@@ -238,3 +238,61 @@ describe('issue 13 bug 12: syntax errors and deep nesting read as located input 
     expect(expectInputError(s, [`2:${8 + MAX_NESTING}`])[0]).toContain('nests deeper');
   });
 });
+
+describe('issue 13 papercuts', () => {
+  it('a repeated warning is printed once with its count, and the JSON keeps it structured', async () => {
+    const file = tempFile(
+      'c.yaml',
+      'qubits: 3\nnoise:\n  qubits: { all: { t1: 5us, t2: 3us } }\n  gates: { all: { duration: 200ns, error: 0.0001 } }\nsteps:\n  - h: 0\n  - h: 1\n  - h: 0\n  - h: 2\n',
+    );
+    const text = await fray('run', file);
+    expect(text.code).toBe(0);
+    const lines = text.out.split('\n').filter((l) => l.includes('coherence limit'));
+    expect(lines).toHaveLength(1);
+    expect(lines[0]).toMatch(/c\.yaml:4:43: 'h': calibrated error 0\.0001 .* \(4 times\)$/);
+    const json = JSON.parse((await fray('run', file, '--json')).out);
+    expect(json.warnings).toEqual([
+      { code: 'error-below-coherence-limit', message: expect.stringContaining("'h': calibrated error 0.0001"), file, line: 4, col: 43, count: 4 },
+    ]);
+  });
+
+  it('--json holds the schedule with --schedule and ρ with --state', async () => {
+    const j = JSON.parse((await fray('run', 'circuits/ghz5.yaml', '--json', '--schedule', '--state')).out);
+    expect(j.timeline.operations[1]).toEqual({ step: 2, operation: 'cx', qubits: [0, 1], start_ns: 30, end_ns: 290 });
+    expect(j.timeline.idle_windows[0]).toEqual({ qubit: 1, start_ns: 0, end_ns: 30 });
+    expect(j.density_matrix.re).toHaveLength(32);
+    // ρ is Hermitian with unit trace (Nielsen & Chuang §2.4.1)
+    let trace = 0;
+    for (let i = 0; i < 32; i++) {
+      trace += j.density_matrix.re[i][i];
+      for (let k = 0; k < 32; k++) expect(j.density_matrix.im[i][k]).toBeCloseTo(-j.density_matrix.im[k][i], 14);
+    }
+    expect(trace).toBeCloseTo(1, 12);
+    const plain = JSON.parse((await fray('run', 'circuits/ghz5.yaml', '--json')).out);
+    expect(plain.timeline).toBeUndefined();
+    expect(plain.density_matrix).toBeUndefined();
+  });
+
+  it('other names of a gate get a suggestion', async () => {
+    for (const [typed, meant] of [['cnot', 'cx'], ['toffoli', 'ccx'], ['hadamard', 'h'], ['not', 'x'], ['cphase', 'cp']]) {
+      const r = await fray('run', tempFile('c.yaml', `qubits: 3\nsteps:\n  - ${typed}: 0\n`));
+      expect(expectInputError(r, ['3:5'])[0]).toContain(`did you mean '${meant}'?`);
+    }
+  });
+
+  it('a literal angle above 2π without a unit gets a warning suggesting degrees', async () => {
+    const r = await fray('run', tempFile('c.yaml', 'qubits: 1\nsteps:\n  - rx: 0\n    angle: 90\n  - rx: 0\n    angle: 6\n  - rx: 0\n    angle: 90deg\n'), '--json');
+    expect(r.code).toBe(0);
+    const w = JSON.parse(r.out).warnings;
+    expect(w).toHaveLength(1);
+    expect(w[0]).toMatchObject({ code: 'angle-above-full-turn', line: 4, col: 12 });
+    expect(w[0].message).toContain('90deg');
+  });
+
+  it('run --help states each default once', async () => {
+    const r = await fray('run', '--help');
+    for (const line of r.out.split('\n')) expect((line.match(/\(default/g) ?? []).length).toBeLessThanOrEqual(1);
+    expect(r.out).toContain('(default: 8)');
+    expect(r.out).not.toContain('(default 8)');
+  });
+});
