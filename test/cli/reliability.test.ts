@@ -97,7 +97,8 @@ describe('issue 13 bug 4: non-finite, huge or zero matrix entries in channels', 
 describe('issue 13 bug 5: NaN in a custom gate matrix', () => {
   it('is a located input error, not a run with null fidelity', async () => {
     const r = await fray('run', tempFile('c.yaml', 'qubits: 1\ngates:\n  g: {matrix: [[.nan,0],[0,1]]}\nsteps:\n  - g: 0\n'));
-    const lines = expectInputError(r, ['3:17', '5:5']);
+    // one problem: the refused gate stays known, so its step is not reported as naming an unknown gate
+    const lines = expectInputError(r, ['3:17']);
     expect(lines[0]).toContain('is not a number');
   });
 });
