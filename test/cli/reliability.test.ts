@@ -297,3 +297,21 @@ describe('issue 13 papercuts', () => {
     expect(r.out).not.toContain('(default 8)');
   });
 });
+
+describe('found while hunting with the fuzz mutations: subnormal relaxation times', () => {
+  it('t1 = 1e-320 ns under a 1 ns gate relaxes |+⟩ to |0⟩ (was fidelity null with exit 0: ∞ − ∞ in the dephasing rate)', async () => {
+    const r = await fray('run', tempFile('c.yaml', 'qubits: 1\nnoise:\n  qubits: {all: {t1: 1e-320ns}}\n  gates: {all: {duration: 1ns}}\nsteps:\n  - h: 0\n'), '--json');
+    expect(r.code, r.err).toBe(0);
+    // full amplitude damping leaves |0⟩⟨0|, whose fidelity with |+⟩ is |⟨+|0⟩|² = 1/2
+    expect(JSON.parse(r.out).fidelity.state).toBeCloseTo(0.5, 12);
+  });
+
+  it('times of 5e-324 ns act exactly like the same ratios at 5 ns', async () => {
+    // |+⟩ idle for τ = T2 keeps ⟨+|ρ|+⟩ = (1 + e^{−τ/T2})/2 (definition of T2, common practice)
+    for (const unit of ['5e-324ns', '5ns']) {
+      const r = await fray('run', tempFile('c.yaml', `qubits: 1\nnoise:\n  qubits: {all: {t1: ${unit}, t2: ${unit}}}\nsteps:\n  - h: 0\n  - idle: 0\n    for: ${unit}\n`), '--json');
+      expect(r.code, r.err).toBe(0);
+      expect(JSON.parse(r.out).fidelity.state).toBeCloseTo((1 + Math.exp(-1)) / 2, 12);
+    }
+  });
+});
