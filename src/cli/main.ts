@@ -151,9 +151,14 @@ function parseSeed(v: string): number {
   return n;
 }
 
+/** Most threads --threads accepts: each is a worker with its own heap, started at once. */
+export const MAX_THREADS = 256;
+
 function parseThreads(v: string): number {
   const n = Number(v);
-  if (!/^\d+$/.test(v) || !Number.isSafeInteger(n) || n < 1) throw new UsageError(`--threads ${v}: expected a whole number of threads, 1 or more`);
+  if (!/^\d+$/.test(v) || !Number.isSafeInteger(n) || n < 1 || n > MAX_THREADS) {
+    throw new UsageError(`--threads ${v}: expected a whole number of threads from 1 to ${MAX_THREADS}`);
+  }
   return n;
 }
 

@@ -16,6 +16,7 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
     if (eq <= 0) throw new UsageError(`--set ${s}: expected name=value, e.g. --set theta=0.4`);
     set[s.slice(0, eq).trim()] = s.slice(eq + 1);
   }
+  if (opts['device'] !== undefined && String(opts['device']).trim() === '') throw new UsageError('--device: expected the path of a noise profile file');
   const observe = ((opts['observe'] as string[] | undefined) ?? []).flatMap((s) => s.split(',')).map((s) => s.trim()).filter((s) => s !== '');
   let maxMemoryBytes: number | undefined;
   if (opts['maxMemory'] !== undefined) {

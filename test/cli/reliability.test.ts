@@ -15,6 +15,7 @@ import { thermalRelaxationChannel } from '../../src/channels/builtins.js';
 import { readChannelDefinitions } from '../../src/format/channelDefinitions.js';
 import { formatProblem, ProblemList } from '../../src/format/problem.js';
 import { MAX_EXPANDED_NODES, MAX_INPUT_BYTES, MAX_NESTING, parseYamlTree } from '../../src/format/yamlTree.js';
+import { MAX_THREADS } from '../../src/cli/main.js';
 import { fray, LOCATED, tempFile } from '../helpers/cli.js';
 
 /** Asserts the input-error contract and that the problems are at exactly `where` (FILE-relative LINE:COL each). */
@@ -313,5 +314,19 @@ describe('found while hunting with the fuzz mutations: subnormal relaxation time
       expect(r.code, r.err).toBe(0);
       expect(JSON.parse(r.out).fidelity.state).toBeCloseTo((1 + Math.exp(-1)) / 2, 12);
     }
+  });
+});
+
+describe('found by hand while hunting: command-line values that started a hang or an unlocated line', () => {
+  it('--threads beyond MAX_THREADS is refused instead of starting that many workers', async () => {
+    const r = await fray('run', 'circuits/ghz5.yaml', '--threads', '99999');
+    expect(r.code).toBe(2);
+    expect(r.err).toBe(`fray: --threads 99999: expected a whole number of threads from 1 to ${MAX_THREADS}\n`);
+  });
+
+  it("--device '' is a usage error, not a problem at an empty file name", async () => {
+    const r = await fray('run', 'circuits/ghz5.yaml', '--device', '');
+    expect(r.code).toBe(2);
+    expect(r.err).toBe('fray: --device: expected the path of a noise profile file\n');
   });
 });
