@@ -62,8 +62,11 @@ export function contentStart(s: YScalar): SourcePosition {
   return s.quoted ? { ...s.at, col: s.at.col + 1 } : s.at;
 }
 
-/** Parses YAML text into a located tree; syntax errors, size and alias limits go into `problems`. */
-export function parseYamlTree(text: string, file: string, problems: ProblemList): YNode | undefined {
+/**
+ * Parses YAML text into a located tree; syntax errors, size, nesting and alias limits go into
+ * `problems`. `maxExpanded` is the budget of nodes aliases may add (MAX_EXPANDED_NODES).
+ */
+export function parseYamlTree(text: string, file: string, problems: ProblemList, maxExpanded: number = MAX_EXPANDED_NODES): YNode | undefined {
   const whole = { file, line: 1, col: 1 };
   if (Buffer.byteLength(text, 'utf8') > MAX_INPUT_BYTES) {
     recordTooLarge(whole, problems);
@@ -107,7 +110,7 @@ export function parseYamlTree(text: string, file: string, problems: ProblemList)
       } else if (typeof node.anchor === 'string') latest.set(node.anchor, node);
     },
   });
-  let budget = MAX_EXPANDED_NODES;
+  let budget = maxExpanded;
   let stopped = false;
   const convert = (node: unknown, depth: number, viaAlias: boolean): YNode | undefined => {
     if (stopped) return undefined;
@@ -123,7 +126,7 @@ export function parseYamlTree(text: string, file: string, problems: ProblemList)
       problems.error(
         whole,
         'alias-bomb',
-        `the document expands to more than ${MAX_EXPANDED_NODES} extra nodes through anchors and aliases; refusing to expand it`,
+        `the document expands to more than ${maxExpanded} extra nodes through anchors and aliases; refusing to expand it`,
       );
       return undefined;
     }
