@@ -1,4 +1,5 @@
 import type { RunResult, Simulation } from '../api/simulate.js';
+import { hasDrift } from '../program/program.js';
 
 /** Largest register whose noisy density matrix `fray run --json --state` includes (64 × 64 entries). */
 export const STATE_JSON_MAX_QUBITS = 6;
@@ -12,10 +13,17 @@ export interface TimedOperationJson {
   readonly end_ns: number;
 }
 
-/** What `--json --schedule` adds: every application placed in time and every idle window. */
+/** The always-on drift the report's schedule lists: detuning per qubit and zz per coupled pair (Hz), acting from 0 to until_ns. */
+export interface DriftJson {
+  readonly qubits: readonly { readonly qubit: number; readonly detuning_hz: number; readonly until_ns: number }[];
+  readonly pairs: readonly { readonly qubits: readonly [number, number]; readonly zz_hz: number; readonly until_ns: number }[];
+}
+
+/** What `--json --schedule` adds: every application placed in time, every idle window, and the drift when there is any. */
 export interface TimelineJson {
   readonly operations: readonly TimedOperationJson[];
   readonly idle_windows: readonly { readonly qubit: number; readonly start_ns: number; readonly end_ns: number }[];
+  readonly drift?: DriftJson;
 }
 
 /** ρ as two row-major real matrices (rows and columns in basis order, qubit 0 leftmost), as `--json --state` adds it. */
@@ -43,6 +51,15 @@ function timelineJson(sim: Simulation): TimelineJson {
       end_ns: it.end,
     })),
     idle_windows: sim.schedule.idleWindows.map((w) => ({ qubit: w.qubit, start_ns: w.start, end_ns: w.end })),
+    ...(sim.profile.couplings !== null || hasDrift(sim.profile) ? { drift: driftJson(sim) } : {}),
+  };
+}
+
+function driftJson(sim: Simulation): DriftJson {
+  const until = (q: number): number => sim.schedule.measureStart[q] ?? sim.schedule.duration;
+  return {
+    qubits: sim.profile.qubits.flatMap((q, i) => (q.detuning === 0 ? [] : [{ qubit: i, detuning_hz: q.detuning, until_ns: until(i) }])),
+    pairs: (sim.profile.couplings ?? []).map((c) => ({ qubits: [c.a, c.b] as [number, number], zz_hz: c.zz, until_ns: Math.min(until(c.a), until(c.b)) })),
   };
 }
 
