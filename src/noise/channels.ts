@@ -353,11 +353,13 @@ export function thermalRelaxation(params: ThermalRelaxationParams): KrausChannel
   const pe = clamp01(excited);
   if (time === 0) return { qubits: 1, kraus: [identity(2)] };
   const g = -Math.expm1(-time / t1); // 1 − e^{−τ/T1}, 0 when T1 = ∞
-  // τ(2/T2 − 1/T1) as 2(τ/T2) − τ/T1, so times as small as subnormals keep finite ratios; it is
-  // ≥ 0 since T2 ≤ 2·T1 (the max clamps rounding and the T2_LIMIT_TOLERANCE slack). It is NaN
-  // only when τ/T1 = τ/T2 = ∞, where g = 1 has removed every coherence already.
-  const x = 2 * (time / t2) - time / t1;
-  const l = Number.isNaN(x) ? 0 : -Math.expm1(-Math.max(0, x)); // 1 − e^{−τ(2/T2 − 1/T1)}
+  // The exponent τ(2/T2 − 1/T1) is ≥ 0 since T2 ≤ 2·T1 (the max clamps rounding and the
+  // T2_LIMIT_TOLERANCE slack). With subnormal times 2/T2 or 1/T1 overflows; then it is taken as
+  // 2(τ/T2) − τ/T1, finite whenever τ is comparable to the times, and NaN only where
+  // τ/T1 = τ/T2 = ∞, where g = 1 has removed every coherence already.
+  const rate = 2 / t2 - 1 / t1;
+  const x = Number.isFinite(rate) ? time * Math.max(0, rate) : Math.max(0, 2 * (time / t2) - time / t1);
+  const l = Number.isNaN(x) ? 0 : -Math.expm1(-x); // 1 − e^{−τ(2/T2 − 1/T1)}
   if (g === 0 && l === 0) return { qubits: 1, kraus: [identity(2)] };
   const gad = g === 0 ? [identity(2)] : generalizedAmplitudeDampingOps(g, pe);
   const pd = l === 0 ? [identity(2)] : phaseDampingOps(l);

@@ -18,15 +18,26 @@ import { mulberry32 } from '../helpers/random.js';
 const SERIES = Number(process.env['FRAY_FUZZ_SEED'] ?? 13_000);
 
 /** Cases per kind of input. */
-const CASES = { circuit: 150, device: 60, channel: 50 } as const;
+const CASES = { circuit: 180, device: 60, channel: 50 } as const;
 
 /** Largest |sum of a probability map − 1| accepted (the listed outcomes drop below 1e-15 each; rounding). */
 const SUM_TOLERANCE = 1e-9;
 
-const CIRCUITS = ['ghz5.yaml', 'qpe3-asap.yaml', 'qpe3-alap.yaml', 'ramsey-echo.yaml', 'coupler-swap.yaml'];
+const CIRCUITS = [
+  'ghz5.yaml',
+  'qpe3-asap.yaml',
+  'qpe3-alap.yaml',
+  'ramsey-echo.yaml',
+  'coupler-swap.yaml',
+  'coherent-overrotation.yaml',
+  'detuned-ramsey-echo.yaml',
+  'zz-spectator-a.yaml',
+  'zz-spectator-b.yaml',
+];
 const DEVICES: readonly [device: string, circuit: string][] = [
   ['bench-line5.yaml', 'ghz5.yaml'],
   ['quad-square.yaml', 'qpe3-alap.yaml'],
+  ['zz-line4.yaml', 'zz-spectator-a.yaml'],
 ];
 
 /** One-qubit channels in every form (invented figures), so a channel run stays fast. */
