@@ -65,6 +65,11 @@ export function warningJson(p: Problem): WarningJson {
   return { code: p.code, message: p.message, file: p.file, line: p.line, col: p.col, count: p.count ?? 1 };
 }
 
+/** A JSON warning as one line `FILE:LINE:COL: message` (without its count). */
+export function warningText(w: WarningJson): string {
+  return `${w.file}:${w.line}:${w.col}: ${w.message}`;
+}
+
 /** A position at the start of a file, for problems that concern the file as a whole. */
 export function fileStart(file: string): SourcePosition {
   return { file, line: 1, col: 1 };

@@ -90,3 +90,8 @@ export const DEFAULT_SEED = 1;
 function clampVector(v: [number, number, number]): [number, number, number] {
   return [clampSigned(v[0]), clampSigned(v[1]), clampSigned(v[2])];
 }
+
+/** Negative rounding residue (≈ −1e-17) shown as 0. */
+export function clean(x: number): number {
+  return x < 0 && x > -LISTED_OUTCOME_THRESHOLD ? 0 : x;
+}

@@ -16,7 +16,7 @@
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { toJson } from '../../src/cli/json.js';
+import { toJson } from '../../src/results/json.js';
 import { fray } from '../helpers/cli.js';
 
 /** The JSON text without its warnings, and the warnings apart. */

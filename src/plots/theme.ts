@@ -1,0 +1,22 @@
+/**
+ * fray's look for plots: the Okabe–Ito palette (distinguishable with the common forms of
+ * colour blindness; Okabe & Ito, "Color Universal Design", 2008) in an order that also
+ * separates in grey print (dark blue, orange, sky, vermillion, green, purple, yellow),
+ * a dash pattern per series so lines read without colour, and a sequential ramp for heat maps.
+ */
+export const SERIES_COLORS = ['#0072B2', '#E69F00', '#56B4E9', '#D55E00', '#009E73', '#CC79A7', '#F0E442', '#000000'] as const;
+
+/** Dash patterns per series (solid first), so series differ in grey print too. */
+export const SERIES_DASHES: readonly (readonly number[])[] = [[1, 0], [6, 3], [2, 2], [8, 3, 2, 3], [4, 4], [1, 3]];
+
+/** Sequential colour scheme of heat maps (a vega scheme that stays ordered in grey). */
+export const HEATMAP_SCHEME = 'viridis';
+
+/** Chart size in pixels and the shared configuration of every fray plot. */
+export const PLOT_CONFIG = {
+  view: { stroke: '#888888', continuousWidth: 520, continuousHeight: 300 },
+  font: 'sans-serif',
+  axis: { labelFontSize: 11, titleFontSize: 12, titleFontWeight: 'normal', gridColor: '#e4e4e4' },
+  title: { fontSize: 13, anchor: 'start', fontWeight: 'bold' },
+  legend: { labelFontSize: 11, titleFontSize: 11, orient: 'bottom', labelLimit: 400 },
+} as const;
