@@ -4,6 +4,8 @@ import { runCommand } from './runCommand.js';
 import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
 import { makeStyle, wantColor } from './style.js';
 import { renderProblems } from './problems.js';
+import { addFormatCommands } from './formatCommands.js';
+import { isQasmPath, loadQasmToolkit } from '../format/qasm/index.js';
 import { addTargetOptions, collect, collectLayout, parseLayout, parseNoiseScale, parsePositiveInt } from './options.js';
 
 /** Exit statuses of the fray command: success, internal error, input error, a failed `--require`. */
@@ -25,6 +27,8 @@ export async function main(argv: readonly string[], io: CliIO = { stdout: proces
   let status: number = EXIT.ok;
   const program = buildProgram(io, (code) => (status = code));
   try {
+    // the OpenQASM parser toolkit loads only for commands given a .qasm file (see src/format/qasm/toolkit.ts)
+    if (argv.some(isQasmPath)) await loadQasmToolkit();
     await program.parseAsync([...argv], { from: 'user' });
     return status;
   } catch (e) {
@@ -88,7 +92,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
   const run = program
     .command('run')
     .description('simulate one circuit file: ideal and noisy runs, fidelities, outcome table')
-    .argument('<file>', 'circuit file (YAML)')
+    .argument('<file>', 'circuit file (YAML, or an OpenQASM 2.0/3 program ending in .qasm)')
     .option('--json', 'print one JSON object instead of the report')
     .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
     .addOption(new Option('--set <key=value...>', 'override a parameter or a profile field (repeatable), e.g. --set theta=0.4 --set qubits.all.t1=50us --set gates.cx.error=none'))
@@ -270,6 +274,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
   // the options shared with run, listed after the command's own
   addTargetOptions(budget, 'multiply every noise strength by C first');
   budget.exitOverride();
+  addFormatCommands(program, io);
   return program;
 }
 

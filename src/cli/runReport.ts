@@ -14,6 +14,13 @@ export interface ReportOptions {
   readonly showSchedule: boolean;
 }
 
+/** What the device line says when no device file was named. */
+function deviceNote(sim: Simulation): string {
+  const noiseWritten = sim.circuit.inlineNoise !== null || sim.circuit.operations.some((op) => op.kind === 'channel' || ('noise' in op && op.noise !== undefined));
+  if (!noiseWritten) return 'none: an ideal run (give a noise profile with --device)';
+  return sim.profile.qubits.every((q) => !Number.isFinite(q.t1) && !Number.isFinite(q.t2)) ? 'none (noise only as written in the circuit)' : 'inline noise';
+}
+
 /** Width of the probability bar at probability 1, in characters. */
 const BAR_WIDTH = 24;
 
@@ -25,7 +32,7 @@ export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Sty
   const kv = (k: string, v: string) => lines.push(`  ${style.dim(k.padEnd(10))}${v}`);
   lines.push(style.bold(r.name ?? r.file));
   kv('file', r.file);
-  kv('device', r.device ?? (sim.profile.qubits.every((q) => !Number.isFinite(q.t1) && !Number.isFinite(q.t2)) ? 'none (noise only as written in the circuit)' : 'inline noise'));
+  kv('device', r.device ?? deviceNote(sim));
   const measured = r.measured.map((q) => qubitName(q, reg)).join(' ');
   if (r.bits !== undefined) kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, record: ${r.bits.join(' ')}`);
   else kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, measured: ${measured}`);
