@@ -1,4 +1,3 @@
-import { readFileSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import type { Circuit } from '../circuit/circuit.js';
 import { readCircuitTree } from '../format/circuitFile.js';
@@ -8,6 +7,7 @@ import { readProfile, type ProfileSpec } from '../format/profileSpec.js';
 import { entryOf } from '../format/read.js';
 import { parseYamlTree, type YNode } from '../format/yamlTree.js';
 import { isQasmPath, lowerQasm, parseQasm, type QasmProgram } from '../format/qasm/index.js';
+import { readInputFile } from './readInput.js';
 import { resolveProfile, type NoiseProfile } from '../noise/profile.js';
 import { scaleNoise } from '../noise/scale.js';
 
@@ -54,18 +54,6 @@ export interface CircuitSource {
   readonly deviceSpec: ProfileSpec | undefined;
   /** Problems of reading the files (only warnings when the source exists). */
   readonly warnings: readonly Problem[];
-}
-
-/** Reads a file's text, or records a located problem. */
-function readText(path: string, at: SourcePosition, what: string, problems: ProblemList): string | undefined {
-  try {
-    return readFileSync(path, 'utf8');
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : code === 'EACCES' ? 'permission denied' : String((e as Error).message);
-    problems.error(at, 'cannot-read', `cannot read ${what} '${path}': ${why}`);
-    return undefined;
-  }
 }
 
 /** Parses a noise profile file's text (a device file). */
@@ -216,7 +204,7 @@ export function parseCircuitText(
 /** Reads a circuit file and its device profile from disk into a CircuitSource; throws InputError on bad input. */
 export function readCircuitSource(path: string, options: { device?: string } = {}): CircuitSource {
   const problems = new ProblemList();
-  const text = readText(path, fileStart(path), 'circuit file', problems);
+  const text = readInputFile(path, fileStart(path), 'circuit file', problems);
   if (text === undefined) throw new InputError(problems.errors);
   const source = parseCircuitSource(text, path, problems, {
     ...options,
@@ -224,7 +212,7 @@ export function readCircuitSource(path: string, options: { device?: string } = {
       // A circuit's `device:` is relative to the circuit file; --device to the working directory.
       const full = options.device !== undefined ? devicePath : resolve(dirname(path), devicePath);
       const shown = options.device !== undefined ? devicePath : relativeShown(path, devicePath);
-      const t = readText(full, at, 'device profile', problems);
+      const t = readInputFile(full, at, 'device profile', problems);
       return t === undefined ? undefined : { text: t, file: shown };
     },
   });

@@ -16,7 +16,8 @@ import { kernelFamilyFor, type KernelFamily } from '../engine/wasmKernels.js';
 import { buildPlan } from '../plan/buildPlan.js';
 import { compilePlan } from '../plan/compilePlan.js';
 import type { Plan, PlannedSegment } from '../plan/plan.js';
-import { InputError, ProblemList, type Problem } from '../format/problem.js';
+import { formatDuration, MAX_DURATION_NS } from '../format/duration.js';
+import { InputError, ProblemList, warningJson, type Problem, type WarningJson } from '../format/problem.js';
 import type { NoiseProfile } from '../noise/profile.js';
 import { buildProgram, hasDrift, type Program } from '../program/program.js';
 import type { IdealState } from '../results/fidelity.js';
@@ -99,7 +100,8 @@ export interface RunResult {
   readonly counts?: Figures['counts'];
   /** Which kernels ran and on how many threads (EngineInfo). */
   readonly engine: EngineInfo;
-  readonly warnings: readonly string[];
+  /** Each distinct warning once, with how often it arose. */
+  readonly warnings: readonly WarningJson[];
 }
 
 /** Everything one run produced: the stages' data and the result object. */
@@ -189,7 +191,7 @@ function usesReference(options: SimulateOptions): boolean {
 function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: Schedule; program: Program; problems: ProblemList } {
   const { circuit, profile } = loaded;
   const problems = new ProblemList();
-  for (const w of loaded.warnings) problems.items.push(w);
+  for (const w of loaded.warnings) problems.add(w);
   const n = circuit.register.n;
   for (const p of options.observe ?? []) {
     const bad = pauliStringProblem(p, n);
@@ -197,6 +199,11 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
     if (bad !== undefined) problems.error(circuit.qubitsAt, 'bad-pauli', `--observe ${p}: ${bad}`);
   }
   const schedule = scheduleCircuit(circuit, profile);
+  const overrun = schedule.items.find((it) => !(it.end <= MAX_DURATION_NS));
+  if (overrun !== undefined) {
+    problems.error(overrun.op.at, 'too-long', `step ${overrun.op.step + 1} ends after ${formatDuration(overrun.end)}; a circuit may last at most ${formatDuration(MAX_DURATION_NS)}`);
+    problems.throwIfErrors();
+  }
   const ops = schedule.items.map((it) => it.op);
   warnEntryFallback(ops, circuit, profile, problems);
   warnOffMap(schedule, profile.couplings, circuit.register, problems);
@@ -347,7 +354,7 @@ function runResult(
     ...(figures.observables !== undefined ? { observables: figures.observables } : {}),
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED, counts: figures.counts } : {}),
     engine,
-    warnings: problems.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`),
+    warnings: problems.warnings.map(warningJson),
   };
 }
 

@@ -5,6 +5,8 @@
  * swap two adjacent characters; each costs 1), compared case-insensitively.
  */
 
+import { NEAR_MISS_NAMES } from './nearMisses.js';
+
 /** Largest edit distance accepted for a word of the given length: max(1, ⌊len/3⌋). */
 export function maxSuggestDistance(length: number): number {
   return Math.max(1, Math.floor(length / 3));
@@ -43,12 +45,15 @@ export function editDistance(a: string, b: string): number {
 
 /**
  * The candidate closest to `word`, or undefined when none is close enough.
- * A case-insensitive exact match wins; otherwise the smallest distance
+ * A case-insensitive exact match wins, then another name of the same gate
+ * (./nearMisses.ts) when it is a candidate; otherwise the smallest distance
  * ≤ maxSuggestDistance(word.length), ties going to the earlier candidate.
  */
 export function suggest(word: string, candidates: readonly string[]): string | undefined {
   const w = word.toLowerCase();
   for (const c of candidates) if (c.toLowerCase() === w) return c;
+  const other = NEAR_MISS_NAMES.get(w);
+  if (other !== undefined && candidates.includes(other)) return other;
   const limit = maxSuggestDistance(word.length);
   let best: string | undefined;
   let bestDistance = limit + 1;

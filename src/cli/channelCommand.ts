@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { readInputFile } from '../api/readInput.js';
 import { evaluateReal, RESERVED_NAMES } from '../circuit/expression.js';
 import { suggest } from '../circuit/suggest.js';
 import { Channel } from '../channels/channel.js';
@@ -68,15 +68,10 @@ function readParams(node: YNode | undefined, problems: ProblemList): Record<stri
 }
 
 function readText(file: string): string {
-  try {
-    return readFileSync(file, 'utf8');
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : code === 'EACCES' ? 'permission denied' : String((e as Error).message);
-    const problems = new ProblemList();
-    problems.error(fileStart(file), 'cannot-read', `cannot read channel file '${file}': ${why}`);
-    throw new InputError(problems.errors);
-  }
+  const problems = new ProblemList();
+  const text = readInputFile(file, fileStart(file), 'channel file', problems);
+  if (text === undefined) throw new InputError(problems.errors);
+  return text;
 }
 
 /** The --against target: a channel of the file by name, else a built-in gate call such as cx or rz(pi/4). */

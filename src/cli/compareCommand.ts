@@ -1,4 +1,5 @@
 import { formatDuration } from '../format/duration.js';
+import { warningText } from '../format/problem.js';
 import { compareVariants, variantLabel, type CompareResult } from '../studies/index.js';
 import { stringify } from 'csv-stringify/sync';
 import { toJson } from '../results/json.js';
@@ -48,7 +49,7 @@ export function renderCompare(r: CompareResult): string {
   if (!r.comparable) {
     lines.push('The variants differ in qubit count or measured qubits: each figure compares a variant with its own ideal run (state fidelity, and TVD of its own distributions).');
   }
-  const warnings = [...new Set(r.variants.flatMap((v) => v.warnings))];
+  const warnings = [...new Set(r.variants.flatMap((v) => v.warnings.map(warningText)))];
   if (warnings.length > 0) lines.push('', 'Warnings:', ...warnings.map((w) => `  ${w}`));
   const failing = r.variants.filter((v) => v.failed.length > 0);
   if (failing.length > 0) lines.push(`${failing.length} of ${r.variants.length} variant${r.variants.length === 1 ? '' : 's'} fail${failing.length === 1 ? 's' : ''} a requirement (exit status 3).`);

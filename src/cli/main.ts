@@ -108,9 +108,9 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .option('--noise-scale <c>', 'multiply every noise strength by C ≥ 0 (rates 1/T1 and 1/T2, probabilities, error, readout)', parseNoiseScale)
     .option('--layout <p0,p1,...>', 'place circuit qubit i on device qubit P_i: the device profile is read at those qubits', parseLayout)
     .option('--shots <n>', 'also sample this many shots from the measured distribution (a whole number up to 2^53, e.g. 1e6)', parseShots)
-    .option('--seed <s>', 'seed of the shot sampler (default 1); the same seed gives the same counts everywhere', parseSeed)
+    .option('--seed <s>', 'seed of the shot sampler (default: 1); the same seed gives the same counts everywhere', parseSeed)
     .addOption(new Option('--observe <pauli...>', 'report ⟨P⟩ for Pauli strings, qubit 0 leftmost (repeatable or comma-separated), e.g. --observe ZZI,XXX'))
-    .option('--top <k>', 'how many outcomes the report lists (default 8)', parseTop, 8)
+    .option('--top <k>', 'how many outcomes the report lists', parseTop, 8)
     .option('--state', 'print per-qubit Bloch vectors (and ρ for up to 3 qubits); in record mode each branch\'s weight')
     .option('--schedule', 'print the time schedule, idle windows and drift (detuning, zz) per qubit and pair; in record mode which measurement feeds which step')
     .option('--max-memory <size>', 'refuse runs needing more memory than this, e.g. 2GiB (default: half the machine)')
@@ -395,9 +395,14 @@ function parseSeed(v: string): number {
   return n;
 }
 
+/** Most threads --threads accepts: each is a worker with its own heap, started at once. */
+export const MAX_THREADS = 256;
+
 function parseThreads(v: string): number {
   const n = Number(v);
-  if (!/^\d+$/.test(v) || !Number.isSafeInteger(n) || n < 1) throw new UsageError(`--threads ${v}: expected a whole number of threads, 1 or more`);
+  if (!/^\d+$/.test(v) || !Number.isSafeInteger(n) || n < 1 || n > MAX_THREADS) {
+    throw new UsageError(`--threads ${v}: expected a whole number of threads from 1 to ${MAX_THREADS}`);
+  }
   return n;
 }
 

@@ -4,6 +4,7 @@ import { parseByteSize } from '../engine/memory.js';
 import type { KernelFamily } from '../engine/wasmKernels.js';
 import { renderRunReport } from './runReport.js';
 import { toJson } from '../results/json.js';
+import { runJson } from './runJson.js';
 import { makeStyle, wantColor } from './style.js';
 import { UsageError, type CliIO } from './main.js';
 import { parseObserveOptions, parseSetOptions } from './options.js';
@@ -11,6 +12,7 @@ import { parseObserveOptions, parseSetOptions } from './options.js';
 /** `fray run FILE`: parses the options, runs the simulation, writes the report or JSON in one piece. */
 export async function runCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
   const set = parseSetOptions(opts['set']);
+  if (opts['device'] !== undefined && String(opts['device']).trim() === '') throw new UsageError('--device: expected the path of a noise profile file');
   const observe = parseObserveOptions(opts['observe']);
   let maxMemoryBytes: number | undefined;
   if (opts['maxMemory'] !== undefined) {
@@ -43,7 +45,7 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
   }
   const sim = simulate(file, options);
   if (opts['json']) {
-    io.stdout.write(toJson(sim.result) + '\n');
+    io.stdout.write(toJson(runJson(sim, { showSchedule: opts['schedule'] === true, showState: opts['state'] === true })) + '\n');
     return;
   }
   const color = wantColor(process.stdout, opts['color'] !== false) && io.stdout === process.stdout;

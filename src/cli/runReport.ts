@@ -1,5 +1,6 @@
 import type { Simulation } from '../api/simulate.js';
 import { formatDuration } from '../format/duration.js';
+import { warningText } from '../format/problem.js';
 import { formatFrequency } from '../format/frequency.js';
 import { hasDrift } from '../program/program.js';
 import { qubitName } from '../format/register.js';
@@ -118,7 +119,7 @@ export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Sty
   if (r.warnings.length > 0) {
     lines.push('');
     lines.push(style.yellow(style.bold('Warnings')));
-    for (const w of r.warnings) lines.push(style.yellow(`  ${w}`));
+    for (const w of r.warnings) lines.push(style.yellow(`  ${warningText(w)}${w.count > 1 ? ` (${w.count} times)` : ''}`));
   }
   return lines.join('\n') + '\n';
 }

@@ -1,6 +1,6 @@
 import { closeSync, existsSync, readFileSync, truncateSync, writeSync } from 'node:fs';
 import { parse } from 'csv-parse/sync';
-import { fileStart, InputError } from '../format/problem.js';
+import { fileStart, InputError, warningText } from '../format/problem.js';
 import {
   checkSweep,
   csvColumns,
@@ -106,7 +106,7 @@ export async function sweepCommand(file: string, opts: Record<string, unknown>, 
     writeOutput('--plot', String(opts['plot']), await (await import('../plots/index.js')).plotSweep(plan, check, all, plotted, target));
   }
   // A warning repeats at many points (the same file position): say each once.
-  const warnings = [...new Set(rows.flatMap((r) => r.result.warnings))];
+  const warnings = [...new Set(rows.flatMap((r) => r.result.warnings.map(warningText)))];
   if (warnings.length > 0 && opts['quiet'] !== true) io.stderr.write(`sweep: warnings at some points:\n${warnings.map((w) => `  ${w}\n`).join('')}`);
   if (out === undefined) io.stdout.write(renderSweep(plan, rows, plotted));
   else if (opts['quiet'] !== true) io.stderr.write(`sweep: ${rows.length} point${rows.length === 1 ? '' : 's'} written to ${out}${skip.size > 0 ? ` (${skip.size} already there)` : ''}\n`);

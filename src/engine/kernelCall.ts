@@ -14,6 +14,7 @@ import { applyReal1, applyReal1Tp } from './kernelReal1.js';
 import { applyReal2, MIRROR_TILE } from './kernelReal2.js';
 import { partStart, trianglePartStart } from './partition.js';
 import { scratchAt, type WasmBinding } from './wasmKernels.js';
+import { checkViewLength } from './sharedView.js';
 
 /**
  * Numeric ids of the kernels: real-form 1-qubit, real-form mirrored 2-qubit, diagonal batch,
@@ -55,12 +56,15 @@ export function encodeCall(call: KernelCall, words: Int32Array, at: number): num
 }
 
 /**
- * Executes the call encoded at words[at …] on the n-qubit ρ (`data`), for part `part` of `parts`
- * (./partition.ts). With `wasm` (this thread's instance over the WebAssembly memory holding
- * `data`, and `arena` loaded there too) the real-form calls run the WebAssembly kernels, the
- * others the JS ones; both families give the same bits.
+ * Executes the call encoded at words[at …] on the n-qubit ρ (`data`, 2·4^n numbers), for part
+ * `part` of `parts` (./partition.ts). With `wasm` (this thread's instance over the WebAssembly
+ * memory holding `data`, and `arena` loaded there too) the real-form calls run the WebAssembly
+ * kernels, the others the JS ones; both families give the same bits. Throws ViewLengthError
+ * when `data` is not the size of an n-qubit ρ, so a thread whose view lost its length
+ * (./sharedView.ts) fails loudly instead of leaving its rows unwritten.
  */
 export function executeCall(data: Float64Array, n: number, words: Int32Array, at: number, arena: Float64Array, part: number, parts: number, wasm?: WasmBinding): void {
+  checkViewLength(data, 2 * 4 ** n, `the ${n}-qubit density matrix of part ${part}`);
   const id = words[at]!;
   const off = words[at + 1]!;
   const kA = words[at + 3]!;

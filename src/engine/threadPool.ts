@@ -10,6 +10,7 @@ import { availableParallelism } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { MessageChannel, Worker, type MessagePort } from 'node:worker_threads';
 import { executeCall } from './kernelCall.js';
+import { shareView } from './sharedView.js';
 import {
   CMD_ATTACH,
   CMD_DETACH,
@@ -119,7 +120,9 @@ export class ThreadPool {
     if (this.parts === 1) return;
     const a = this.attached;
     if (a !== undefined && a.data === data && a.arena === arena && a.words === words) return;
-    for (const p of this.ports) p.postMessage({ data, arena, words, wasm });
+    // the buffers, not the views: a posted view over ≥ 4 GiB arrives with a wrong length (./sharedView.ts)
+    const message = { data: shareView(data), arena: shareView(arena), words: shareView(words), wasm };
+    for (const p of this.ports) p.postMessage(message);
     this.command(CMD_ATTACH);
     this.attached = { data, arena, words, wasm: wasm !== undefined ? bindWasm(wasm) : undefined };
   }

@@ -20,8 +20,17 @@ import {
 } from './threadControl.js';
 import { awaitOptimisedKernels, warmKernels } from './warmKernels.js';
 import { bindWasm, warmWasmKernels, type WasmBinding, type WasmRegisterHandle } from './wasmKernels.js';
+import { openFloat64View, openInt32View, type SharedViewMessage } from './sharedView.js';
 
-/** The buffers a worker works on, as posted by ThreadPool.attach. */
+/** The buffers a worker works on, as posted by ThreadPool.attach (./sharedView.ts says why not as views). */
+interface AttachMessage {
+  readonly data: SharedViewMessage;
+  readonly arena: SharedViewMessage;
+  readonly words: SharedViewMessage;
+  readonly wasm?: WasmRegisterHandle;
+}
+
+/** The views a worker works on, rebuilt from an AttachMessage with their lengths checked. */
 interface Attachment {
   readonly data: Float64Array;
   readonly arena: Float64Array;
@@ -49,8 +58,15 @@ function workerLoop(): void {
     try {
       if (cmd === CMD_ATTACH) {
         const msg = receiveMessageOnPort(port);
-        current = msg?.message as Attachment | undefined;
-        if (current === undefined) throw new Error('no attachment posted');
+        const posted = msg?.message as AttachMessage | undefined;
+        current = undefined;
+        if (posted === undefined) throw new Error('no attachment posted');
+        current = {
+          data: openFloat64View(posted.data, 'the density matrix'),
+          arena: openFloat64View(posted.arena, 'the arena'),
+          words: openInt32View(posted.words, 'the call words'),
+          ...(posted.wasm !== undefined ? { wasm: posted.wasm } : {}),
+        };
         wasm = current.wasm !== undefined ? bindWasm(current.wasm) : undefined;
         if (wasm === undefined) awaitOptimisedKernels();
       } else if (cmd === CMD_DETACH) {

@@ -36,6 +36,7 @@ import {
   thermalRelaxationChannel,
 } from '../channels/builtins.js';
 import { parallel } from '../channels/parallel.js';
+import { t2WithinLimit } from '../noise/channels.js';
 import { sequence } from '../channels/sequence.js';
 import { type CMatrix, unitarityResidual } from '../linalg/cmatrix.js';
 import { parseGateCall } from './gateCall.js';
@@ -171,6 +172,10 @@ class DefinitionReader {
     }
     const channel = this.readForm(kind, form.value, `'${kind}' of ${where}`, qubits);
     if (channel === undefined) return undefined;
+    if (isZeroMap(channel)) {
+      this.problems.error(form.value.at, 'zero-map', `${where} is the zero map (it sends every state to 0); a channel needs at least one nonzero Kraus operator or matrix entry`);
+      return undefined;
+    }
     if (qubits !== undefined && channel.qubits !== qubits) {
       this.problems.error(qe!.value.at, 'bad-qubits', `${where} says 'qubits: ${qubits}' but its '${kind}' acts on ${channel.qubits} qubit${channel.qubits === 1 ? '' : 's'}`);
       return undefined;
@@ -323,7 +328,8 @@ class DefinitionReader {
       return ns;
     };
     const t1 = time('t1', true) ?? Infinity;
-    const t2 = time('t2', true) ?? Infinity;
+    // as in a profile: no t2 means no dephasing beyond what T1 causes, t2 = 2·t1
+    const t2 = time('t2', true) ?? 2 * t1;
     const tau = time('time', false);
     const ee = entryOf(m, 'excited');
     const excited = ee === undefined ? 0 : this.readReal(ee.value, `'excited' of ${what}`, 0, 1);
@@ -332,7 +338,7 @@ class DefinitionReader {
       this.problems.error(m.at, 'missing-key', `${what} needs 'time': how long the qubit relaxes, e.g. time: 200ns`);
       return undefined;
     }
-    if (t2 > 2 * t1) {
+    if (!t2WithinLimit(t1, t2)) {
       this.problems.error(entryOf(m, 't2')!.value.at, 'out-of-range', `'t2' of ${what} exceeds 2·t1 (${2 * t1} ns); no physical qubit dephases more slowly than that`);
       return undefined;
     }
@@ -392,6 +398,11 @@ class DefinitionReader {
     }
     return v;
   }
+}
+
+/** True when every entry of the channel's Choi matrix is exactly zero. */
+function isZeroMap(c: Channel): boolean {
+  return c.choi().data.every((x) => x === 0);
 }
 
 /** The channel on each of k qubits independently (its k-th tensor power); itself when k is 1 or not given. */

@@ -158,7 +158,8 @@ function readParams(
       }
       declared.add(e.key);
       const v = e.value;
-      const override = overrides[e.key];
+      // own properties only: a plain-object table would answer 'constructor' with Object
+      const override = Object.hasOwn(overrides, e.key) ? overrides[e.key] : undefined;
       if (override !== undefined) {
         // --set replaces the file's value in place, so later params computed from it follow.
         const r = evaluateReal(override, params);
@@ -182,5 +183,5 @@ function readParams(
       problems.error(at, 'unknown-param', `--set ${k}=${overrides[k]}: the circuit has no parameter '${k}'${hint}`);
     }
   }
-  return { ...params };
+  return params;
 }

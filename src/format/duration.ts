@@ -14,6 +14,13 @@ export const DURATION_UNITS: Readonly<Record<string, number>> = {
   s: 1e9,
 };
 
+/**
+ * Longest duration fray accepts, in ns (10^6 s, about 11.6 days), for one duration and for a
+ * whole circuit's schedule. Far beyond any coherence time, and far below where sums of
+ * durations lose their nanoseconds (2^53 ns ≈ 104 days) or overflow.
+ */
+export const MAX_DURATION_NS = 1e15;
+
 const DURATION_RE = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(ns|us|µs|μs|ms|s)\s*$/;
 
 /** Parses '35ns', '1.2us', '2 ms' into nanoseconds, or returns an error message. */
@@ -26,8 +33,8 @@ export function parseDuration(text: string): { ns: number } | { error: string } 
     return { error: `'${text}' is not a duration; expected a number with a unit ns, us (µs), ms or s, e.g. 35ns or 1.2us` };
   }
   const value = Number(m[1]) * DURATION_UNITS[m[2]!]!;
-  if (!Number.isFinite(value)) return { error: `duration '${text}' is not finite` };
   if (value < 0) return { error: `duration '${text}' is negative; expected zero or more` };
+  if (!(value <= MAX_DURATION_NS)) return { error: `duration '${text}' is longer than fray accepts (at most ${MAX_DURATION_NS / 1e9} s)` };
   return { ns: value };
 }
 

@@ -95,8 +95,17 @@ export class GateLibrary {
       const matrixEntry = entryOf(def, 'matrix');
       if (matrixEntry !== undefined) {
         checkKeys(def, ['matrix'], where, problems);
+        // A refused matrix whose size still says how many qubits the gate has stays known (with
+        // no unitary), so its steps are checked and not reported as naming an unknown gate.
+        const refused = (rows: number): void => {
+          const k = qubitsOfDimension(rows);
+          if (k !== undefined && k <= MAX_CUSTOM_GATE_QUBITS) this.customs.set(e.key, { name: e.key, qubits: k, params: [], kind: 'matrix', unitary: () => undefined });
+        };
         const m = readMatrix(matrixEntry.value, `the matrix of ${where}`, this.circuitParams, problems);
-        if (m === undefined) continue;
+        if (m === undefined) {
+          if (matrixEntry.value.kind === 'seq') refused(matrixEntry.value.items.length);
+          continue;
+        }
         const k = qubitsOfDimension(m.rows);
         if (m.rows !== m.cols || k === undefined || k > MAX_CUSTOM_GATE_QUBITS) {
           problems.error(matrixEntry.value.at, 'bad-matrix', `the matrix of ${where} is ${m.rows}×${m.cols}; expected 2^k × 2^k for k from 1 to ${MAX_CUSTOM_GATE_QUBITS}`);
@@ -105,6 +114,7 @@ export class GateLibrary {
         const res = unitarityResidual(m);
         if (!(res <= UNITARITY_TOLERANCE)) {
           problems.error(matrixEntry.value.at, 'not-unitary', `the matrix of ${where} is not unitary: the largest entry of U†U − I is ${res.toExponential(2)} (allowed ${UNITARITY_TOLERANCE})`);
+          refused(m.rows);
           continue;
         }
         this.customs.set(e.key, { name: e.key, qubits: k, params: [], kind: 'matrix', unitary: () => m });
@@ -218,7 +228,7 @@ export class GateLibrary {
     problems: ProblemList,
   ): CompositePart[] | undefined {
     // The composite's own parameters shadow the circuit's.
-    const env: Record<string, number> = { ...this.circuitParams };
+    const env: Record<string, number> = Object.assign(Object.create(null) as Record<string, number>, this.circuitParams);
     params.forEach((p, i) => (env[p] = args[i]!));
     const parts: CompositePart[] = [];
     for (const s of body) {

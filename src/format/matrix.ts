@@ -5,8 +5,17 @@ import { offsetInto } from './read.js';
 import { describe, type YNode } from './yamlTree.js';
 
 /**
+ * Largest magnitude |re + i·im| a matrix entry may have. Unitaries, Kraus operators, Choi
+ * matrices, superoperators and PTMs of channels on at most 6 qubits have entries of magnitude
+ * at most 64 (bounded by d); the margin leaves room for the unphysical maps `fray channel`
+ * inspects, while keeping products of entries (Choi matrices, eigen-solves) far from overflow.
+ */
+export const MAX_MATRIX_ENTRY = 1e6;
+
+/**
  * Reads a complex matrix written as a list of rows; each entry is a number or a complex
- * expression string ("0.5-0.5i", "i", "1/sqrt(2)", "exp(i*pi/4)").
+ * expression string ("0.5-0.5i", "i", "1/sqrt(2)", "exp(i*pi/4)"), finite and of magnitude at
+ * most MAX_MATRIX_ENTRY.
  */
 export function readMatrix(
   node: YNode,
@@ -30,8 +39,15 @@ export function readMatrix(
       return;
     }
     row.items.forEach((cell, c) => {
+      const entryAt = (re: number, im: number): boolean => {
+        if (Number.isFinite(re) && Number.isFinite(im) && Math.hypot(re, im) <= MAX_MATRIX_ENTRY) return true;
+        const shown = Number.isNaN(re) || Number.isNaN(im) ? 'not a number' : !Number.isFinite(re) || !Number.isFinite(im) ? 'infinite' : `of magnitude ${Math.hypot(re, im).toExponential(2)}`;
+        problems.error(cell.at, 'bad-entry', `entry (${r + 1}, ${c + 1}) of ${what} is ${shown}; expected a finite number of magnitude at most ${MAX_MATRIX_ENTRY}`);
+        ok = false;
+        return false;
+      };
       if (cell.kind === 'scalar' && typeof cell.value === 'number') {
-        m.data[2 * (r * cols + c)] = cell.value;
+        if (entryAt(cell.value, 0)) m.data[2 * (r * cols + c)] = cell.value;
         return;
       }
       if (cell.kind !== 'scalar' || typeof cell.value !== 'string') {
@@ -45,6 +61,7 @@ export function readMatrix(
         ok = false;
         return;
       }
+      if (!entryAt(v.value[0], v.value[1])) return;
       m.data[2 * (r * cols + c)] = v.value[0];
       m.data[2 * (r * cols + c) + 1] = v.value[1];
     });

@@ -202,6 +202,7 @@ export function maxAbsDiff(a: CMatrix, b: CMatrix): number {
   let worst = 0;
   for (let k = 0; k < a.data.length; k += 2) {
     const d = Math.hypot(a.data[k]! - b.data[k]!, a.data[k + 1]! - b.data[k + 1]!);
+    if (Number.isNaN(d)) return NaN; // a NaN entry is no small residual
     if (d > worst) worst = d;
   }
   return worst;

@@ -12,7 +12,7 @@
 import { simulateLoaded, measuredQubits, type SimulateOptions } from '../api/simulate.js';
 import type { LoadedCircuit } from '../api/loadCircuit.js';
 import type { Circuit } from '../circuit/circuit.js';
-import { ProblemList } from '../format/problem.js';
+import { ProblemList, warningText } from '../format/problem.js';
 import { foldCircuit, type FoldOrder } from '../transforms/fold.js';
 import { scaleNoise } from '../noise/scale.js';
 import type { NoiseProfile } from '../noise/profile.js';
@@ -118,7 +118,7 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
   }
   const runOptions: SimulateOptions = { ...(options.run ?? {}), observe: options.observe ?? [] };
   const base = simulateLoaded(loaded, runOptions);
-  const warnings = [...base.result.warnings];
+  const warnings: string[] = base.result.warnings.map(warningText);
   const measured = measuredQubits(loaded.circuit);
   const n = loaded.circuit.register.n;
   const dd = options.dd === undefined ? undefined : insertDecoupling(loaded.circuit, loaded.profile, options.dd);

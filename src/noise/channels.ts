@@ -308,6 +308,19 @@ function generalizedAmplitudeDampingOps(g: number, pe: number): CMatrix[] {
   ];
 }
 
+/**
+ * Relative slack on the physical limit T2 ≤ 2·T1, so that a t2 written as exactly 2·t1 in
+ * other units (2015ns and 4.03us: 4030.0000000000005 ns after conversion) is accepted. The one
+ * place this tolerance lives: the kernel below, device profiles and `thermal:` channel
+ * definitions all ask t2WithinLimit.
+ */
+export const T2_LIMIT_TOLERANCE = 1e-12;
+
+/** True when T2 ≤ 2·T1 up to T2_LIMIT_TOLERANCE (relative); times in ns, Infinity allowed. */
+export function t2WithinLimit(t1: number, t2: number): boolean {
+  return t2 <= 2 * t1 * (1 + T2_LIMIT_TOLERANCE);
+}
+
 /** Parameters of thermal relaxation of one qubit: times in ns (Infinity = no such process). */
 export interface ThermalRelaxationParams {
   /** Energy relaxation time T1 in ns; Infinity means no relaxation. */
@@ -328,18 +341,25 @@ export interface ThermalRelaxationParams {
  * √(1−γ) = e^{−τ/(2T1)}, followed by phase damping (§8.3.6) with
  * √(1−λ) = e^{−τ/T2}/e^{−τ/(2T1)}, i.e. λ = 1 − e^{−τ(2/T2 − 1/T1)} (needs T2 ≤ 2·T1).
  * Exactly-zero and parallel Kraus operators are removed; returns the identity channel
- * (one Kraus operator) when nothing happens.
+ * (one Kraus operator) when nothing happens. A T2 above 2·T1 by at most T2_LIMIT_TOLERANCE
+ * acts as T2 = 2·T1.
  */
 export function thermalRelaxation(params: ThermalRelaxationParams): KrausChannel {
   const { t1, t2, excited, time } = params;
   if (!(t1 > 0) || !(t2 > 0)) throw new RangeError(`thermal relaxation: T1 = ${t1} and T2 = ${t2} must be > 0`);
   if (!(time >= 0) || !Number.isFinite(time)) throw new RangeError(`thermal relaxation: time ${time} must be finite and ≥ 0`);
-  if (t2 > 2 * t1) throw new RangeError(`thermal relaxation: T2 = ${t2} exceeds 2·T1 = ${2 * t1}`);
+  if (!t2WithinLimit(t1, t2)) throw new RangeError(`thermal relaxation: T2 = ${t2} exceeds 2·T1 = ${2 * t1}`);
   checkProbability('thermal relaxation excited population', excited);
   const pe = clamp01(excited);
+  if (time === 0) return { qubits: 1, kraus: [identity(2)] };
   const g = -Math.expm1(-time / t1); // 1 − e^{−τ/T1}, 0 when T1 = ∞
-  const rate = Math.max(0, 2 / t2 - 1 / t1); // ≥ 0 since T2 ≤ 2·T1; clamp rounding
-  const l = -Math.expm1(-time * rate); // 1 − e^{−τ(2/T2 − 1/T1)}
+  // The exponent τ(2/T2 − 1/T1) is ≥ 0 since T2 ≤ 2·T1 (the max clamps rounding and the
+  // T2_LIMIT_TOLERANCE slack). With subnormal times 2/T2 or 1/T1 overflows; then it is taken as
+  // 2(τ/T2) − τ/T1, finite whenever τ is comparable to the times, and NaN only where
+  // τ/T1 = τ/T2 = ∞, where g = 1 has removed every coherence already.
+  const rate = 2 / t2 - 1 / t1;
+  const x = Number.isFinite(rate) ? time * Math.max(0, rate) : Math.max(0, 2 * (time / t2) - time / t1);
+  const l = Number.isNaN(x) ? 0 : -Math.expm1(-x); // 1 − e^{−τ(2/T2 − 1/T1)}
   if (g === 0 && l === 0) return { qubits: 1, kraus: [identity(2)] };
   const gad = g === 0 ? [identity(2)] : generalizedAmplitudeDampingOps(g, pe);
   const pd = l === 0 ? [identity(2)] : phaseDampingOps(l);

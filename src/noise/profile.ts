@@ -1,4 +1,5 @@
 import { GATE_ALIASES } from '../circuit/gates.js';
+import { t2WithinLimit } from './channels.js';
 import { suggest } from '../circuit/suggest.js';
 import type { Circuit } from '../circuit/circuit.js';
 import { misplacedZz, type Loc, type NoiseKindsSpec } from '../format/noiseKindsSpec.js';
@@ -131,9 +132,6 @@ function stripUndefined<T extends object>(o: T): Partial<T> {
   for (const [k, v] of Object.entries(o)) if (v !== undefined) (out as Record<string, unknown>)[k] = v;
   return out;
 }
-
-/** Tolerance on t2 ≤ 2·t1 (relative), so that t2 written as exactly 2·t1 passes. */
-export const T2_LIMIT_TOLERANCE = 1e-12;
 
 /** Options of profile resolution. */
 export interface ResolveOptions {
@@ -318,7 +316,7 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
     const e = mergeQubitEntries(mergeQubitEntries(mergeQubitEntries(files.qubitAll, own), command.qubitAll), command.qubitOne[q]!);
     const t1 = e.t1?.value ?? Infinity;
     const t2 = e.t2?.value ?? (Number.isFinite(t1) ? 2 * t1 : Infinity);
-    if (e.t2 !== undefined && t2 > 2 * t1 * (1 + T2_LIMIT_TOLERANCE)) {
+    if (e.t2 !== undefined && !t2WithinLimit(t1, t2)) {
       problems.error(
         e.t2.at,
         't2-too-long',

@@ -2,7 +2,7 @@ import type { Circuit, Condition, NoiseOverride, Operation } from '../circuit/ci
 import type { Instruction, Origin } from '../engine/instruction.js';
 import type { RecordInstruction, RecordProgram } from '../engine/recordProgram.js';
 import { misplacedZz, plainKinds, type NoiseKindsSpec } from '../format/noiseKindsSpec.js';
-import { ProblemList, type SourcePosition } from '../format/problem.js';
+import { ProblemList } from '../format/problem.js';
 import { CustomChannelError, ErrorSolveError, gateNoise, idleChannel, type QubitDecay } from '../noise/gateNoise.js';
 import { detuningAngle, zRotation, zzAngle, zzRotation } from '../noise/coherent.js';
 import type { NoiseProfile } from '../noise/profile.js';
@@ -81,14 +81,6 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
   };
   const decay = (q: number): QubitDecay => profile.qubits[q]!;
   const channels = circuit.channels;
-  const seen = new Set<string>();
-  const warnOnce = (at: SourcePosition, code: string, message: string): void => {
-    const key = `${at.line}:${at.col}:${message}`;
-    if (!seen.has(key)) {
-      seen.add(key);
-      problems.warn(at, code, message);
-    }
-  };
   const emitIdle = (w: IdleWindow): void => {
     if (profile.idle !== 'thermal') return;
     const ch = idleChannel(decay(w.qubit), w.end - w.start);
@@ -125,7 +117,10 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
         kinds: plainKinds(kinds),
         channels,
       });
-      if (gn.warning !== undefined) warnOnce(kinds.error?.at ?? op.at, 'error-below-coherence-limit', `${label}: ${gn.warning}`);
+      // located at the `error:` that asks for it and worded without the step, so the
+      // ProblemList counts the applications of one entry as one warning
+      const what = op.kind === 'gate' ? `'${op.name}'` : op.kind;
+      if (gn.warning !== undefined) problems.warn(kinds.error?.at ?? op.at, 'error-below-coherence-limit', `${what}: ${gn.warning}`);
       for (const c of frame === undefined ? gn.channels : frameNoise(gn.channels, k, frame)) {
         const on = c.targets.map((t) => qubits[t]!);
         const origin = { step: op.step, what: c.source === 'thermal' ? `thermal during ${label}` : c.source };

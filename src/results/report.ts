@@ -5,6 +5,7 @@ import { applyReadout, diagonalOf, marginal, type ReadoutConfusion } from './pro
 import { sampleCounts } from './sampling.js';
 import { idealBlochVectors, idealDiagonal, idealExpectation } from './idealFigures.js';
 import { bitstring } from '../engine/layout.js';
+import { clampSigned, clampUnit } from './clamp.js';
 
 /** Outcomes whose probability exceeds this in any of ideal / noisy / measured are listed (the contract's 1e-15). */
 export const LISTED_OUTCOME_THRESHOLD = 1e-15;
@@ -42,7 +43,7 @@ export interface Figures {
   readonly counts?: Record<string, number>;
 }
 
-/** Computes the figures of a run from its final noisy and ideal states. */
+/** Computes the figures of a run from its final noisy and ideal states, rounding excess over their ranges clamped (./clamp.ts). */
 export function computeFigures(rho: DensityMatrix, ideal: IdealState, input: ReportInput): Figures {
   const { n, measured } = input;
   const m = measured.length;
@@ -58,23 +59,23 @@ export function computeFigures(rho: DensityMatrix, ideal: IdealState, input: Rep
     const c = pMeasured[k]!;
     if (a > LISTED_OUTCOME_THRESHOLD || b > LISTED_OUTCOME_THRESHOLD || c > LISTED_OUTCOME_THRESHOLD) {
       const s = bitstring(k, m);
-      ideals[s] = clean(a);
-      noisys[s] = clean(b);
-      measureds[s] = clean(c);
+      ideals[s] = clampUnit(a);
+      noisys[s] = clampUnit(b);
+      measureds[s] = clampUnit(c);
     }
   }
   const figures: Figures = {
     probabilities: { ideal: ideals, noisy: noisys, measured: measureds },
-    fidelity: { state: stateFidelity(rho, ideal), classical: classicalFidelity(pIdeal, pMeasured) },
-    tvd: totalVariationDistance(pIdeal, pMeasured),
-    purity: purity(rho),
-    bloch: { ideal: idealBlochVectors(ideal), noisy: blochVectors(rho) },
+    fidelity: { state: clampUnit(stateFidelity(rho, ideal)), classical: clampUnit(classicalFidelity(pIdeal, pMeasured)) },
+    tvd: clampUnit(totalVariationDistance(pIdeal, pMeasured)),
+    purity: clampUnit(purity(rho)),
+    bloch: { ideal: idealBlochVectors(ideal).map(clampVector), noisy: blochVectors(rho).map(clampVector) },
   };
   const extra: { observables?: Figures['observables']; counts?: Figures['counts'] } = {};
   if (input.observe.length > 0) {
     extra.observables = {};
     for (const p of input.observe) {
-      extra.observables[p] = { ideal: idealExpectation(ideal, p), noisy: pauliExpectation(rho, p) };
+      extra.observables[p] = { ideal: clampSigned(idealExpectation(ideal, p)), noisy: clampSigned(pauliExpectation(rho, p)) };
     }
   }
   if (input.shots !== undefined) {
@@ -85,6 +86,10 @@ export function computeFigures(rho: DensityMatrix, ideal: IdealState, input: Rep
 
 /** Seed used for --shots when none is given, so that runs repeat by default. */
 export const DEFAULT_SEED = 1;
+
+function clampVector(v: [number, number, number]): [number, number, number] {
+  return [clampSigned(v[0]), clampSigned(v[1]), clampSigned(v[2])];
+}
 
 /** Negative rounding residue (≈ −1e-17) shown as 0. */
 export function clean(x: number): number {

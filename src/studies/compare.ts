@@ -1,4 +1,5 @@
 import type { RunResult } from '../api/simulate.js';
+import type { WarningJson } from '../format/problem.js';
 import { failedConditions, type Condition } from './conditions.js';
 import { higherIsBetter, metricName, metricTitle, metricValue, observablesOf, type Metric } from './metrics.js';
 import { countOperations, runVariant, SourceCache, type OperationCounts, type VariantChoice } from './variant.js';
@@ -43,8 +44,8 @@ export interface ComparedVariant {
   readonly value: number;
   /** The conditions this variant fails, as written (empty when it meets all). */
   readonly failed: readonly string[];
-  /** The run's warnings (`FILE:LINE:COL: message`), as `fray run --json` gives them. */
-  readonly warnings: readonly string[];
+  /** The run's warnings, as `fray run --json` gives them ({code, message, file, line, col, count}). */
+  readonly warnings: readonly WarningJson[];
 }
 
 /** The outcome of a comparison, best first. */

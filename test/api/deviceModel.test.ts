@@ -31,7 +31,7 @@ steps:
   - cz: [q2, q0]
   - ccx: [q0, q1, q2]
 `);
-    expect(s.result.warnings).toEqual([
+    expect(s.result.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`)).toEqual([
       "test.yaml:5:5: step 1: cx on q0, q2: the pair q0, q2 is not in the device's couplings",
       "test.yaml:6:5: step 2: cz on q2, q0: the pair q2, q0 is not in the device's couplings",
     ]);
@@ -74,7 +74,7 @@ steps:
   - cx: [0, 1]
   - h: 2
 `);
-    expect(s.result.warnings).toEqual([
+    expect(s.result.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`)).toEqual([
       "test.yaml:9:5: 2-qubit gate swap has no entry in the profile's 'gates', so it takes the 'all' entry (duration 32 ns, error 0.0005); give it an entry of its own",
       "test.yaml:11:5: composite gate pair has no entry in the profile's 'gates', so it takes the 'all' entry (duration 32 ns, error 0.0005); give it an entry of its own",
     ]);

@@ -135,7 +135,7 @@ noise:
 steps:
   - x: 0
 `);
-    expect(r.warnings.join('\n')).toMatch(/error 0\.0001 is below/);
+    expect(r.warnings.map((w) => w.message).join('\n')).toMatch(/error 0\.0001 is below/);
   });
 });
 

@@ -6,6 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { figureDistance, loadProgram, repoFile, runProgram } from './helpers.js';
 import type { GateOperation } from '../../../src/circuit/circuit.js';
+import { warningText } from '../../../src/format/problem.js';
 
 /** Agreement of two routes to the same figure (double rounding only). */
 const TWIN = 1e-12;
@@ -123,7 +124,7 @@ steps:
   it('bits assigned out of qubit order: outcomes stay in qubit order and a located warning says so', () => {
     const sim = runProgram('OPENQASM 2.0;\ninclude "qelib1.inc";\nqreg q[2];\ncreg c[2];\nx q[0];\nmeasure q[1] -> c[0];\nmeasure q[0] -> c[1];\n');
     expect(sim.result.probabilities.ideal).toEqual({ '10': 1 });
-    expect(sim.result.warnings[0]).toMatch(/^p\.qasm:7:1: c\[1\] holds q\[0\] but an earlier bit holds q\[1\]/);
+    expect(warningText(sim.result.warnings[0]!)).toMatch(/^p\.qasm:7:1: c\[1\] holds q\[0\] but an earlier bit holds q\[1\]/);
   });
 
   it('U and CX need no header', () => {
