@@ -3,6 +3,15 @@
 // (prepare; scripts/bundle.mjs) and started through V8's code cache (./loadCli.js).
 import { loadCli } from './loadCli.js';
 
+// A reader that stops early (`fray run --json | head`) closes the pipe: end quietly, as
+// line-oriented tools do, instead of dying on an unhandled EPIPE with a stack trace.
+for (const stream of [process.stdout, process.stderr]) {
+  stream.on('error', (e) => {
+    if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    throw e;
+  });
+}
+
 const writeCache = process.env.FRAY_WRITE_CODE_CACHE === '1';
 const cli = loadCli(writeCache);
 cli.main(process.argv.slice(2)).then((code) => {

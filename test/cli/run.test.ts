@@ -158,6 +158,12 @@ describe('the installed command', () => {
     expect(res.stderr).not.toMatch(/\n\s+at /);
   });
 
+  it('a reader that closes the pipe early ends the run quietly: no EPIPE stack trace, exit 0', () => {
+    // `head -c 1` stands for any reader that stops before the end of a long report
+    const r = spawnSync('sh', ['-c', `"${process.execPath}" bin/fray.js run circuits/bench/layers10x20.yaml --json --threads 1 | head -c 1 >/dev/null`], { encoding: 'utf8' });
+    expect(r.stderr).not.toMatch(/EPIPE|\n\s+at /);
+  });
+
   it('prints JSON for a demo and respects NO_COLOR', () => {
     const out = execFileSync(process.execPath, ['bin/fray.js', 'run', 'circuits/coupler-swap.yaml', '--json'], { encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
     expect(JSON.parse(out).qubits).toBe(3);
