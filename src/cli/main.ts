@@ -2,6 +2,7 @@ import { Command, CommanderError, Option } from 'commander';
 import { InputError } from '../format/problem.js';
 import { runCommand } from './runCommand.js';
 import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
+import { schemaCommand } from './schemaCommand.js';
 import { makeStyle, wantColor } from './style.js';
 import { renderProblems } from './problems.js';
 
@@ -136,6 +137,14 @@ function buildProgram(io: CliIO): Command {
       await channelCommand(file, name, opts, io);
     });
   channel.exitOverride();
+
+  program
+    .command('schema')
+    .description('print the JSON Schema of a file kind, for editors that complete keys and flag typos as you type')
+    .argument('<kind>', 'circuit, profile (a device file) or channels (a channel file of fray channel)')
+    .addHelpText('after', '\nExample:\n  fray schema circuit > circuit.schema.json\n\nThe same schemas ship as docs/schemas/*.schema.json; docs/editors.md shows how to use them.')
+    .action((kind: string) => schemaCommand(kind, io))
+    .exitOverride();
   return program;
 }
 

@@ -12,6 +12,9 @@ export interface Loc<T> {
 /** Noise kinds as read from a file, each with its position (validated, not yet resolved). */
 export type NoiseKindsSpec = { -readonly [K in keyof NoiseKinds]?: Loc<NonNullable<NoiseKinds[K]>> };
 
+/** The keys of a `pauli:` map: the X, Y and Z probabilities. */
+export const PAULI_KEYS = ['x', 'y', 'z'] as const;
+
 /** True when `key` names a noise kind. */
 export function isNoiseKindKey(key: string): boolean {
   return (NOISE_KIND_KEYS as readonly string[]).includes(key);
@@ -38,7 +41,7 @@ export function readNoiseKindEntry(e: YEntry, into: NoiseKindsSpec, where: strin
     case 'pauli': {
       const m = asMap(e.value, what, problems);
       if (m === undefined) return true;
-      checkKeys(m, ['x', 'y', 'z'], what, problems);
+      checkKeys(m, PAULI_KEYS, what, problems);
       const get = (k: 'x' | 'y' | 'z'): number | undefined => {
         const ent = m.entries.find((x) => x.key === k);
         return ent === undefined ? 0 : readProbability(ent.value, `'${k}' of ${what}`, problems);

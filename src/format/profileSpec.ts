@@ -55,8 +55,12 @@ export interface ProfileSpec {
 
 /** The top-level keys of a noise profile. */
 export const PROFILE_KEYS = ['name', 'qubits', 'gates', 'idle', 'schedule'] as const;
-const QUBIT_KEYS = ['t1', 't2', 'excited', 'readout'] as const;
-const GATE_KEYS = ['duration', 'thermal', ...NOISE_KIND_KEYS] as const;
+/** The keys of one `qubits:` entry of a noise profile. */
+export const QUBIT_KEYS = ['t1', 't2', 'excited', 'readout'] as const;
+/** The keys of a `readout:` map (P(read 1 | prepared 0), P(read 0 | prepared 1)). */
+export const READOUT_KEYS = ['zero_as_one', 'one_as_zero'] as const;
+/** The keys of one `gates:` entry of a noise profile. */
+export const GATE_KEYS = ['duration', 'thermal', ...NOISE_KIND_KEYS] as const;
 
 /** Reads a noise profile map (device file root or inline `noise:`) into a ProfileSpec. */
 export function readProfile(
@@ -141,7 +145,7 @@ function readReadout(node: YNode, what: string, problems: ProblemList): Readout 
   }
   const m = asMap(node, `${what} (one probability, or zero_as_one and one_as_zero)`, problems);
   if (m === undefined) return undefined;
-  checkKeys(m, ['zero_as_one', 'one_as_zero'], what, problems);
+  checkKeys(m, READOUT_KEYS, what, problems);
   let zeroAsOne: number | undefined = 0;
   let oneAsZero: number | undefined = 0;
   for (const e of m.entries) {

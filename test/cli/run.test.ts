@@ -88,7 +88,7 @@ describe('fray run', () => {
   it('refuses a run above --max-memory before allocating', async () => {
     const r = await fray('run', 'circuits/ghz5.yaml', '--max-memory', '1MiB');
     expect(r.code).toBe(2);
-    expect(r.err).toMatch(/circuits\/ghz5\.yaml:7:9: 5 qubits need about .* but the limit is 1 MiB/);
+    expect(r.err).toMatch(/circuits\/ghz5\.yaml:8:9: 5 qubits need about .* but the limit is 1 MiB/);
   });
 
   it('bad option values are input errors', async () => {
