@@ -18,7 +18,8 @@ export interface CliIO {
   readonly stderr: { write(s: string): unknown; isTTY?: boolean };
 }
 
-const VERSION = '0.1.0';
+/** fray's version (printed by --version and written in reports). */
+export const VERSION = '0.1.0';
 
 /** Runs the fray command line with `argv` (without node and script) and returns the exit status. */
 export async function main(argv: readonly string[], io: CliIO = { stdout: process.stdout, stderr: process.stderr }): Promise<number> {
@@ -92,6 +93,7 @@ function buildProgram(io: CliIO): Command {
     .option('--top <k>', 'how many outcomes the report lists (default 8)', parseTop, 8)
     .option('--state', 'print per-qubit Bloch vectors (and ρ for up to 3 qubits)')
     .option('--schedule', 'print the time schedule and idle windows')
+    .option('--html <file>', 'also write a self-contained HTML report: schedule timeline, outcome bars, Bloch lengths, observables')
     .option('--max-memory <size>', 'refuse runs needing more memory than this, e.g. 2GiB (default: half the machine)')
     .option('--plan', 'print the plan of kernel calls (what is fused into each pass over the density matrix) instead of running')
     .option('--threads <n>', 'threads sharing each pass on 9+ qubits (default: the machine\'s cores; 1 = off)', parseThreads)
@@ -104,6 +106,7 @@ function buildProgram(io: CliIO): Command {
         '  fray run circuits/ghz5.yaml --device circuits/devices/bench-line5.yaml --top 4\n' +
         '  fray run circuits/ramsey-echo.yaml --set detune=0.025 --schedule\n' +
         '  fray run circuits/ghz5.yaml --shots 1000 --seed 7 --observe ZZIII,XXXXX --json\n' +
+        '  fray run circuits/qpe3-asap.yaml --html report.html   the timeline and charts in one page\n' +
         '  fray run circuits/bench/layers10x20.yaml --plan      what each pass over ρ fuses\n' +
         '  fray run circuits/bench/layers10x20.yaml --threads 1 one thread (or --no-fuse: one pass per operation)\n' +
         '\nReport figures: state fidelity is Uhlmann–Jozsa, squared; classical fidelity and total\n' +

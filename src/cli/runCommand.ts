@@ -4,7 +4,8 @@ import { parseByteSize } from '../engine/memory.js';
 import { renderRunReport } from './runReport.js';
 import { toJson } from './json.js';
 import { makeStyle, wantColor } from './style.js';
-import { UsageError, type CliIO } from './main.js';
+import { UsageError, VERSION, type CliIO } from './main.js';
+import { writeOutputFile } from './writeOutput.js';
 
 /** `fray run FILE`: parses the options, runs the simulation, writes the report or JSON in one piece. */
 export async function runCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
@@ -30,6 +31,8 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
     ...(opts['threads'] !== undefined ? { threads: opts['threads'] as number } : {}),
     fuse: opts['fuse'] !== false,
   };
+  const html = opts['html'] as string | undefined;
+  if (html !== undefined && opts['plan'] === true) throw new UsageError('--html draws a run; --plan does not run the circuit: give one of them');
   if (opts['plan'] === true) {
     const planned = planFile(file, options);
     const origins = planned.program.origins;
@@ -37,6 +40,12 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
     return;
   }
   const sim = simulate(file, options);
+  if (html !== undefined) {
+    // loaded on demand: the plotting library is large and only --html needs it
+    const { runPage } = await import('../html/index.js');
+    writeOutputFile('--html', html, await runPage(sim, { top: opts['top'] as number, version: VERSION }));
+    io.stderr.write(`fray: wrote the HTML report to ${html}\n`);
+  }
   if (opts['json']) {
     io.stdout.write(toJson(sim.result) + '\n');
     return;

@@ -1,4 +1,7 @@
+import { deviceDescription } from '../api/describe.js';
 import type { Simulation } from '../api/simulate.js';
+import { HEADLINE_FIGURES } from '../results/headlineFigures.js';
+import { topOutcomes } from '../results/topOutcomes.js';
 import { formatDuration } from '../format/duration.js';
 import { qubitName } from '../format/register.js';
 import type { Style } from './style.js';
@@ -22,25 +25,17 @@ export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Sty
   const kv = (k: string, v: string) => lines.push(`  ${style.dim(k.padEnd(10))}${v}`);
   lines.push(style.bold(r.name ?? r.file));
   kv('file', r.file);
-  kv('device', r.device ?? (sim.profile.qubits.every((q) => !Number.isFinite(q.t1) && !Number.isFinite(q.t2)) ? 'none (noise only as written in the circuit)' : 'inline noise'));
+  kv('device', deviceDescription(sim));
   const measured = r.measured.map((q) => qubitName(q, reg)).join(' ');
   kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, measured: ${measured}`);
   kv('duration', `${formatDuration(r.duration_ns)} (${r.schedule.toUpperCase()} schedule)`);
   lines.push('');
 
   lines.push(style.bold('Fidelity with the ideal run'));
-  const fid = (k: string, v: number, note: string) => lines.push(`  ${k.padEnd(26)}${v.toFixed(6)}  ${style.dim(note)}`);
-  fid('state fidelity', r.fidelity.state, 'Uhlmann–Jozsa, squared: (Tr√(√σρ√σ))²');
-  fid('classical fidelity', r.fidelity.classical, '(Σ√(p_ideal·p_measured))², readout included');
-  fid('total variation distance', r.tvd, '½Σ|p_ideal − p_measured|');
-  fid('purity', r.purity, 'Tr ρ² of the noisy state');
+  for (const f of HEADLINE_FIGURES) lines.push(`  ${f.name.padEnd(26)}${f.value(r).toFixed(6)}  ${style.dim(f.definition)}`);
   lines.push('');
 
-  const outcomes = Object.keys(r.probabilities.measured);
-  const ranked = outcomes
-    .map((k) => ({ k, p: Math.max(r.probabilities.ideal[k] ?? 0, r.probabilities.measured[k] ?? 0) }))
-    .sort((a, b) => b.p - a.p || (a.k < b.k ? -1 : 1))
-    .slice(0, opts.top);
+  const ranked = topOutcomes(r.probabilities, opts.top).map((k) => ({ k }));
   const total = 1 << r.measured.length;
   lines.push(style.bold(`Most likely outcomes (${ranked.length} of ${total}; qubit ${qubitName(r.measured[0]!, reg)} leftmost)`));
   const w = Math.max(7, r.measured.length);

@@ -1,0 +1,50 @@
+/**
+ * The one code path from a picture to SVG: a vega-lite spec is compiled to vega and
+ * rendered headless by vega in Node (no browser, no canvas). Every mark that has a
+ * `description` gets it as an SVG <title>, so hovering a box shows its exact figures in
+ * any browser without scripts.
+ */
+import * as vega from 'vega';
+import { compile, type TopLevelSpec } from 'vega-lite';
+import { FONT, INK, RULE } from './palette.js';
+
+/** The look shared by every fray picture (fonts, axis and legend ink). */
+const CONFIG = {
+  font: FONT,
+  background: '#ffffff',
+  view: { stroke: null },
+  axis: { labelColor: INK, titleColor: INK, domainColor: RULE, tickColor: RULE, gridColor: '#ece8df', labelFontSize: 11, titleFontSize: 11, titleFontWeight: 'normal' },
+  legend: { labelColor: INK, titleColor: INK, labelFontSize: 11, titleFontSize: 11, titleFontWeight: 'normal' },
+} as const;
+
+/** Renders a vega-lite spec to a standalone SVG string, with marks' descriptions as hover titles. */
+export async function renderPlot(spec: TopLevelSpec): Promise<string> {
+  const compiled = compile({ ...spec, config: { ...CONFIG, ...(spec.config ?? {}) } } as TopLevelSpec).spec;
+  const view = new vega.View(vega.parse(compiled), { renderer: 'none' });
+  try {
+    return uniqueIds(descriptionsAsTitles(await view.toSVG()));
+  } finally {
+    view.finalize();
+  }
+}
+
+/**
+ * vega writes a mark's `description` as the aria-label of its self-closing <path>; the same
+ * text as a <title> child is what browsers show on hover. The label is already escaped for
+ * an attribute, which is also valid element text.
+ */
+export function descriptionsAsTitles(svg: string): string {
+  return svg.replace(/<path aria-label="([^"]*)" role="graphics-symbol"([^>]*?)\/>/g, '<path aria-label="$1" role="graphics-symbol"$2><title>$1</title></path>');
+}
+
+/**
+ * vega numbers the ids of an SVG's gradients and clip paths from 0 in every picture; a page
+ * holding several pictures needs them distinct, so each id gets a prefix derived from the
+ * picture's own text (FNV-1a), which keeps the output deterministic.
+ */
+export function uniqueIds(svg: string): string {
+  let h = 0x811c9dc5;
+  for (let i = 0; i < svg.length; i++) h = Math.imul(h ^ svg.charCodeAt(i), 0x01000193);
+  const prefix = `p${(h >>> 0).toString(36)}_`;
+  return svg.replace(/\bid="([^"]+)"/g, `id="${prefix}$1"`).replace(/url\(#([^)]+)\)/g, `url(#${prefix}$1)`);
+}
