@@ -105,7 +105,7 @@ describe('fray run', () => {
     expect(top.out).toContain('Examples:');
     const run = await fray('run', '--help');
     expect(run.code).toBe(0);
-    for (const opt of ['--json', '--device', '--set', '--shots', '--seed', '--observe', '--top', '--state', '--schedule', '--max-memory', '--no-color']) {
+    for (const opt of ['--json', '--device', '--set', '--shots', '--seed', '--observe', '--top', '--state', '--schedule', '--max-memory', '--html', '--no-color']) {
       expect(run.out).toContain(opt);
     }
     expect(run.out).toContain('Examples:');
