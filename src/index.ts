@@ -30,7 +30,7 @@ export { Channel, checkPhysicality, channelMetrics, diamondDistance, nearestCptp
 export type { Physicality, ChannelMetrics, DiamondDistance, CptpRepair, ChannelForm } from './channels/index.js';
 export { runPage, timelineData, idleWindowCost } from './html/index.js';
 export type { RunPageOptions } from './html/index.js';
-export { renderPlot, timelineSpec, comparisonBarsSpec } from './plots/index.js';
+export { renderSvg, timelineSpec, comparisonBarsSpec } from './plots/index.js';
 export type { TimelineData, ComparisonChart } from './plots/index.js';
 export { buildSchemas, schemaText, SCHEMA_KINDS } from './format/schema/index.js';
 export type { SchemaKind, JsonSchema } from './format/schema/index.js';

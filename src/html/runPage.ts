@@ -7,7 +7,7 @@ import { deviceDescription } from '../api/describe.js';
 import type { Simulation } from '../api/simulate.js';
 import { formatDuration } from '../format/duration.js';
 import { qubitName } from '../format/register.js';
-import { comparisonBarsSpec, renderPlot, timelineSpec, type ComparisonBar, type Series } from '../plots/index.js';
+import { comparisonBarsSpec, renderSvg, timelineSpec, type ComparisonBar, type Series } from '../plots/index.js';
 import { HEADLINE_FIGURES } from '../results/headlineFigures.js';
 import { topOutcomes } from '../results/topOutcomes.js';
 import { esc, figure, keyValueList, page, pair, table, type PageSection } from './page.js';
@@ -63,7 +63,7 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
       `M marks a measurement, R a reset, N a standalone noise step; dashed ticks are barriers and the dashed line is the end of the circuit. ${idleNote} ` +
       `Hover a box or a band for its exact figures.`,
     body:
-      figure(await renderPlot(timelineSpec(tl)), `${r.schedule.toUpperCase()} schedule, ${formatDuration(r.duration_ns)} in total.`) +
+      figure(await renderSvg(timelineSpec(tl)), `${r.schedule.toUpperCase()} schedule, ${formatDuration(r.duration_ns)} in total.`) +
       (worst.length === 0
         ? `<p class="note">No qubit waits: there are no idle windows.</p>`
         : table(
@@ -89,7 +89,7 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
     heading: `Most likely outcomes (${keys.length} of ${total})`,
     note: `Ideal (hollow), noisy before readout (light) and measured with readout error (dark). Each bit string lists the measured qubits ${bitOrder}, qubit ${name(r.measured[0]!)} leftmost.`,
     body: pair(
-      figure(await renderPlot(comparisonBarsSpec({ bars, categories: keys, categoryTitle: bitTitle, valueTitle: 'probability', domain: [0, 1], monospace: true })), 'Outcome probabilities.'),
+      figure(await renderSvg(comparisonBarsSpec({ bars, categories: keys, categoryTitle: bitTitle, valueTitle: 'probability', domain: [0, 1], monospace: true })), 'Outcome probabilities.'),
       table(
         [`outcome (${bitOrder})`, 'ideal', 'noisy', 'measured'],
         keys.map((k) => [k, ...series.map((s) => (r.probabilities[s][k] ?? 0).toFixed(6))]),
@@ -111,7 +111,7 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
     heading: 'Per-qubit state',
     note: 'Length |r| of each qubit’s Bloch vector (⟨X⟩, ⟨Y⟩, ⟨Z⟩) of its reduced state: 1 for a pure single-qubit state, shorter when the qubit is mixed by noise or by entanglement with the others (0 for a qubit of a GHZ state).',
     body: pair(
-      figure(await renderPlot(comparisonBarsSpec({ bars: blochBars, categories: qubits.map(name), categoryTitle: 'qubit', valueTitle: 'Bloch vector length |r|', domain: [0, 1] })), 'Bloch vector lengths, ideal (hollow) and noisy (filled).'),
+      figure(await renderSvg(comparisonBarsSpec({ bars: blochBars, categories: qubits.map(name), categoryTitle: 'qubit', valueTitle: 'Bloch vector length |r|', domain: [0, 1] })), 'Bloch vector lengths, ideal (hollow) and noisy (filled).'),
       table(
         ['qubit', 'ideal (⟨X⟩, ⟨Y⟩, ⟨Z⟩)', 'noisy (⟨X⟩, ⟨Y⟩, ⟨Z⟩)', 'ideal |r|', 'noisy |r|'],
         qubits.map((q) => [name(q), vec(r.bloch.ideal[q]!), vec(r.bloch.noisy[q]!), lengths(r.bloch.ideal[q]!).toFixed(4), lengths(r.bloch.noisy[q]!).toFixed(4)]),
@@ -130,7 +130,7 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
       heading: 'Pauli expectation values',
       note: `⟨P⟩ = Tr(Pρ); one letter per qubit, qubit ${name(0)} leftmost.`,
       body: pair(
-        figure(await renderPlot(comparisonBarsSpec({ bars: obsBars, categories: strings, categoryTitle: 'Pauli string', valueTitle: '⟨P⟩', domain: [-1, 1], monospace: true })), 'Expectation values, ideal (hollow) and noisy (filled).'),
+        figure(await renderSvg(comparisonBarsSpec({ bars: obsBars, categories: strings, categoryTitle: 'Pauli string', valueTitle: '⟨P⟩', domain: [-1, 1], monospace: true })), 'Expectation values, ideal (hollow) and noisy (filled).'),
         table(['Pauli string', 'ideal', 'noisy'], strings.map((p) => [p, round(r.observables![p]!.ideal).toFixed(6), round(r.observables![p]!.noisy).toFixed(6)]), [1, 2]),
       ),
     });

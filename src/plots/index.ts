@@ -1,8 +1,8 @@
 /**
  * fray's pictures: each is data plus a vega-lite spec, compiled to SVG by one function
- * (renderPlot). Colours are stated once in palette.ts.
+ * (renderSvg). Colours are stated once in palette.ts.
  */
-export { renderPlot, descriptionsAsTitles } from './render.js';
+export { renderSvg, descriptionsAsTitles } from './render.js';
 export { timelineSpec, TIMELINE_WIDTH, LANE_HEIGHT } from './timeline.js';
 export type { TimelineData, TimelineBox, TimelineIdle, TimelineLink } from './timeline.js';
 export { comparisonBarsSpec } from './comparisonBars.js';

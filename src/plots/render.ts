@@ -18,7 +18,7 @@ const CONFIG = {
 } as const;
 
 /** Renders a vega-lite spec to a standalone SVG string, with marks' descriptions as hover titles. */
-export async function renderPlot(spec: TopLevelSpec): Promise<string> {
+export async function renderSvg(spec: TopLevelSpec): Promise<string> {
   const compiled = compile({ ...spec, config: { ...CONFIG, ...(spec.config ?? {}) } } as TopLevelSpec).spec;
   // only errors would be worth saying, and they throw: a CLI's stderr is the user's
   const view = new vega.View(vega.parse(compiled), { renderer: 'none', logLevel: vega.None });

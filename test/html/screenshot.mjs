@@ -22,7 +22,7 @@ const context = await chromium.launchPersistentContext(profile, {
 try {
   const tab = await context.newPage();
   await tab.goto(`file://${resolve(page)}`, { waitUntil: 'load' });
-  if (selector !== undefined) await tab.locator(selector).screenshot({ path: out });
+  if (selector !== undefined && selector !== '') await tab.locator(selector).screenshot({ path: out });
   else await tab.screenshot({ path: out, fullPage: true });
 } finally {
   await context.close();

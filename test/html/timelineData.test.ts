@@ -2,7 +2,7 @@ import { XMLValidator } from 'fast-xml-parser';
 import { describe, expect, it } from 'vitest';
 import { simulateLoaded } from '../../src/api/simulate.js';
 import { timelineData } from '../../src/html/timelineData.js';
-import { renderPlot } from '../../src/plots/render.js';
+import { renderSvg } from '../../src/plots/render.js';
 import { timelineSpec } from '../../src/plots/timeline.js';
 import { loadText } from '../helpers/load.js';
 
@@ -80,7 +80,7 @@ describe('timeline of a run', () => {
   });
 
   it('renders to well-formed SVG with one hover title per box and idle window', async () => {
-    const svg = await renderPlot(timelineSpec(tl));
+    const svg = await renderSvg(timelineSpec(tl));
     expect(XMLValidator.validate(svg)).toBe(true);
     const group = (name: string) => new RegExp(`<g class="mark-rect role-mark ${name}_marks"[^>]*>(.*?)</g>`).exec(svg)?.[1] ?? '';
     expect((group('boxes').match(/<path /g) ?? []).length).toBe(tl.boxes.length);

@@ -1,11 +1,11 @@
 import { XMLValidator } from 'fast-xml-parser';
 import { describe, expect, it } from 'vitest';
 import { comparisonBarsSpec } from '../../src/plots/comparisonBars.js';
-import { descriptionsAsTitles, renderPlot, uniqueIds } from '../../src/plots/render.js';
+import { descriptionsAsTitles, renderSvg, uniqueIds } from '../../src/plots/render.js';
 
-describe('renderPlot: vega-lite to SVG', () => {
+describe('renderSvg: vega-lite to SVG', () => {
   it('draws one bar per value, each with its description as a hover title', async () => {
-    const svg = await renderPlot(
+    const svg = await renderSvg(
       comparisonBarsSpec({
         bars: [
           { category: '00', series: 'ideal', value: 0.5, title: '00 ideal <0.5>' },
