@@ -6,6 +6,7 @@ import { toJson } from './json.js';
 import { makeStyle, wantColor } from './style.js';
 import { UsageError, VERSION, type CliIO } from './main.js';
 import { writeOutputFile } from './writeOutput.js';
+import { runPage } from '../html/index.js';
 
 /** `fray run FILE`: parses the options, runs the simulation, writes the report or JSON in one piece. */
 export async function runCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
@@ -41,8 +42,6 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
   }
   const sim = simulate(file, options);
   if (html !== undefined) {
-    // loaded on demand: the plotting library is large and only --html needs it
-    const { runPage } = await import('../html/index.js');
     writeOutputFile('--html', html, await runPage(sim, { top: opts['top'] as number, version: VERSION }));
     io.stderr.write(`fray: wrote the HTML report to ${html}\n`);
   }

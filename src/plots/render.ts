@@ -4,8 +4,7 @@
  * `description` gets it as an SVG <title>, so hovering a box shows its exact figures in
  * any browser without scripts.
  */
-import * as vega from 'vega';
-import { compile, type TopLevelSpec } from 'vega-lite';
+import type { TopLevelSpec } from 'vega-lite';
 import { FONT, INK, RULE } from './palette.js';
 
 /** The look shared by every fray picture (fonts, axis and legend ink). */
@@ -19,6 +18,8 @@ const CONFIG = {
 
 /** Renders a vega-lite spec to a standalone SVG string, with marks' descriptions as hover titles. */
 export async function renderSvg(spec: TopLevelSpec): Promise<string> {
+  // loaded on first use: the library is large, and only pictures need it
+  const [vega, { compile }] = await Promise.all([import('vega'), import('vega-lite')]);
   const compiled = compile({ ...spec, config: { ...CONFIG, ...(spec.config ?? {}) } } as TopLevelSpec).spec;
   // only errors would be worth saying, and they throw: a CLI's stderr is the user's
   const view = new vega.View(vega.parse(compiled), { renderer: 'none', logLevel: vega.None });
