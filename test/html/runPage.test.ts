@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { XMLValidator } from 'fast-xml-parser';
 import { describe, expect, it } from 'vitest';
-import { fray } from '../helpers/cli.js';
+import { fray, tempFile } from '../helpers/cli.js';
 
 /** Writes the HTML report of a demo with `fray run --json --html` and returns the page and the JSON. */
 async function report(demo: string, ...extra: string[]): Promise<{ html: string; json: Record<string, any>; err: string }> {
@@ -49,6 +49,18 @@ describe('fray run --html', () => {
     const { html } = await report('circuits/ghz5.yaml');
     // qubit 3 waits longest before its cx (ghz5 builds the chain from qubit 0)
     expect(html).toMatch(/<table class="idle-windows">.*?<tbody><tr><td>3<\/td>/);
+  });
+
+  it('escapes names, labels and qubit labels from the file everywhere, in HTML and SVG', async () => {
+    const circuit = tempFile(
+      'odd.yaml',
+      'name: "<b>odd & \\"quoted\\"</b>"\nqubits: ["a<1>", b]\nnoise:\n  qubits: { all: { t1: 20us } }\n  gates: { all: { duration: 50ns } }\nsteps:\n  - h: "a<1>"\n    label: "x < y & z"\n  - cx: ["a<1>", b]\n',
+    );
+    const { html } = await report(circuit);
+    expect(XMLValidator.validate(html)).toBe(true);
+    expect(html).not.toContain('<b>');
+    expect(html).toContain('<h1>&lt;b&gt;odd &amp; &quot;quoted&quot;&lt;/b&gt;</h1>');
+    expect(html).toContain('<title>step 1: h on a&lt;1&gt; (x &lt; y &amp; z) · 0 ns → 50 ns (50 ns)</title>');
   });
 
   it('is an input error with --plan, or when the file cannot be written; nothing is left behind', async () => {
