@@ -1,5 +1,6 @@
 import { deviceDescription } from '../api/describe.js';
 import type { Simulation } from '../api/simulate.js';
+import { operationName } from '../circuit/operationName.js';
 import { HEADLINE_FIGURES } from '../results/headlineFigures.js';
 import { topOutcomes } from '../results/topOutcomes.js';
 import { formatDuration } from '../format/duration.js';
@@ -124,8 +125,8 @@ function renderSchedule(sim: Simulation, style: Style): string[] {
   lines.push(`  ${style.dim('step'.padEnd(6))}${style.dim('operation'.padEnd(14))}${style.dim('qubits'.padEnd(14))}${style.dim('start'.padStart(10))}${style.dim('end'.padStart(10))}`);
   for (const it of sim.schedule.items) {
     const op = it.op;
-    const name = op.kind === 'gate' ? op.name : op.kind === 'channel' ? 'noise' : op.kind;
-    lines.push(`  ${String(op.step + 1).padEnd(6)}${name.padEnd(14)}${op.qubits.map((q) => qubitName(q, reg)).join(' ').padEnd(14)}${num(it.start).padStart(10)}${num(it.end).padStart(10)}`);
+    const name = operationName(op);
+    lines.push(`  ${String(op.step + 1).padEnd(6)}${`${name} `.padEnd(14)}${`${op.qubits.map((q) => qubitName(q, reg)).join(' ')} `.padEnd(14)}${num(it.start).padStart(10)}${num(it.end).padStart(10)}`);
   }
   lines.push('', style.bold('Idle windows (relaxation applies when the profile says idle: thermal)'));
   if (sim.schedule.idleWindows.length === 0) lines.push(style.dim('  none'));

@@ -94,6 +94,8 @@ table { border-collapse: collapse; margin-top: 10px; background: var(--card); fo
 th, td { border: 1px solid var(--line); padding: 3px 10px; text-align: left; }
 th { background: #efebe3; font-weight: 600; }
 td.num, th.num { text-align: right; font-family: Menlo, Consolas, monospace; font-variant-numeric: tabular-nums; }
+details { margin-top: 10px; }
+summary { cursor: pointer; color: var(--muted); }
 .warnings li { color: #7a2e00; }
 footer { color: var(--muted); font-size: 12.5px; padding-top: 24px; padding-bottom: 30px; }
 @media print { body { background: #fff; } figure, .card, table { break-inside: avoid; } }

@@ -5,6 +5,7 @@
  */
 import { deviceDescription } from '../api/describe.js';
 import type { Simulation } from '../api/simulate.js';
+import { operationName } from '../circuit/operationName.js';
 import { formatDuration } from '../format/duration.js';
 import { qubitName } from '../format/register.js';
 import { comparisonBarsSpec, renderSvg, timelineSpec, type ComparisonBar, type Series } from '../plots/index.js';
@@ -71,7 +72,20 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
             worst.map(({ w, cost }) => [name(w.qubit), num(w.start), num(w.end), formatDuration(w.end - w.start), cost.toExponential(3)]),
             [1, 2, 3, 4],
             'idle-windows',
-          ) + `<p class="note">The ${worst.length === 1 ? 'only idle window' : `${worst.length} costliest idle windows`} of ${sim.schedule.idleWindows.length}.</p>`),
+          ) + `<p class="note">The ${worst.length === 1 ? 'only idle window' : `${worst.length} costliest idle windows`} of ${sim.schedule.idleWindows.length}.</p>`) +
+      `<details><summary>Every scheduled step (${sim.schedule.items.length})</summary>` +
+      table(
+        ['step', 'operation', 'qubits', 'start (ns)', 'end (ns)'],
+        sim.schedule.items.map((it) => [
+          String(it.op.step + 1),
+          operationName(it.op),
+          it.op.qubits.map(name).join(' '),
+          num(it.start),
+          num(it.end),
+        ]),
+        [0, 3, 4],
+      ) +
+      `</details>`,
   });
 
   const keys = topOutcomes(r.probabilities, opts.top);

@@ -9,6 +9,7 @@
  */
 import type { Simulation } from '../api/simulate.js';
 import type { Operation } from '../circuit/circuit.js';
+import { operationName } from '../circuit/operationName.js';
 import { formatDuration } from '../format/duration.js';
 import { plainKinds } from '../format/noiseKindsSpec.js';
 import { qubitName } from '../format/register.js';
@@ -47,7 +48,7 @@ export function timelineData(sim: Simulation): TimelineData {
     }
     if (op.kind === 'idle') continue; // idle steps are idle time: they show as idle windows
     const kind = operationKind(op);
-    const what = op.kind === 'gate' ? op.name : op.kind === 'channel' ? 'noise' : op.kind;
+    const what = operationName(op);
     const qubits = op.qubits.map(name).join(', ');
     const noise = noiseText(sim, op);
     const title =
