@@ -7,6 +7,8 @@ import { loadCircuit, parseCircuitText, parseProfileText } from '../../src/api/l
 import { readChannelFile } from '../../src/cli/channelCommand.js';
 import { InputError, ProblemList } from '../../src/format/problem.js';
 import { buildSchemas, SCHEMA_KINDS, schemaText, type JsonSchema, type SchemaKind } from '../../src/format/schema/index.js';
+import { ACTION_MODIFIERS } from '../../src/format/schema/circuitSchema.js';
+import { STEP_ACTIONS, STEP_MODIFIERS } from '../../src/format/stepShape.js';
 import { generateCase } from '../contract/generator.js';
 import { fray } from '../helpers/cli.js';
 
@@ -156,6 +158,26 @@ describe('JSON Schemas of the file formats', () => {
       expect(valid(c.kind, c.text)).toBe(false);
     });
   }
+
+  it('lets each action take exactly the modifiers fray lets it take (every action × every modifier, tried in both)', () => {
+    const values: Record<string, string> = { angle: '0.1', angles: '[0.1]', noise: '{ bit_flip: 0.1 }', for: '10ns', on: '0', label: 'x' };
+    expect(Object.keys(values).sort()).toEqual([...STEP_MODIFIERS].sort());
+    let accepted = 0;
+    for (const action of STEP_ACTIONS) {
+      for (const modifier of STEP_MODIFIERS) {
+        const extra = action === 'idle' && modifier !== 'for' ? '\n    for: 10ns' : '';
+        const text = `qubits: 1\nsteps:\n  - ${action}: 0\n    ${modifier}: ${values[modifier]}${extra}\n`;
+        const problems = new ProblemList();
+        parseCircuitText(text, 'c.yaml', problems);
+        const frayTakes = !problems.errors.some((p) => p.code === 'bad-modifier');
+        if (frayTakes) accepted++;
+        expect(valid('circuit', text), `${action} with ${modifier}: fray ${frayTakes ? 'takes' : 'refuses'} it`).toBe(frayTakes);
+        expect(ACTION_MODIFIERS[action].includes(modifier)).toBe(frayTakes);
+      }
+    }
+    expect(accepted).toBe(6);
+    expect(valid('circuit', 'qubits: 1\nsteps:\n  - idle: 0\n')).toBe(false); // fray: missing-for
+  });
 
   it('accepts a custom gate name it cannot know (fray checks those names itself)', () => {
     const text = 'qubits: 2\ngates:\n  swing: { matrix: [[0, 1], [1, 0]] }\nsteps:\n  - swing: [0, 1]\n  - rz: 0\n    angle: 90deg\n';

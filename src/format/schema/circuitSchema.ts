@@ -41,6 +41,11 @@ export function circuitDefs(gaps: SchemaGap[]): Record<string, JsonSchema> {
     properties: stepProperties,
     patternProperties: { [otherWord(Object.keys(stepProperties))]: { ...ref('target'), description: 'a custom gate of this circuit' } },
     additionalProperties: false,
+    // an action step takes only its own modifiers (and idle needs 'for')
+    allOf: STEP_ACTIONS.map((a) => ({
+      if: { required: [a] },
+      then: { propertyNames: { enum: [a, ...ACTION_MODIFIERS[a]] }, ...(a === 'idle' ? { required: ['for'] } : {}) },
+    })),
   };
   const compositeProperties = { ...byGate, ...Object.fromEntries(COMPOSITE_STEP_MODIFIERS.map((m) => [m, modifierValues[m]!])) };
   const compositeStep: JsonSchema = {
@@ -125,6 +130,18 @@ export function circuitDefs(gaps: SchemaGap[]): Record<string, JsonSchema> {
     pauliString: { type: 'string', pattern: '^[IXYZ]+$' },
   };
 }
+
+/**
+ * The modifiers each action takes (readSteps in src/format/steps.ts checks them one action
+ * at a time); test/format/schema.test.ts tries every action with every modifier in fray
+ * and in the schema, so the two cannot drift apart.
+ */
+export const ACTION_MODIFIERS: Readonly<Record<(typeof STEP_ACTIONS)[number], readonly (typeof STEP_MODIFIERS)[number][]>> = {
+  idle: ['for', 'label'],
+  barrier: ['label'],
+  measure: ['label'],
+  reset: ['noise', 'label'],
+};
 
 const ACTION_DESCRIPTIONS: Readonly<Record<(typeof STEP_ACTIONS)[number], string>> = {
   idle: "qubits that wait (each) for the step's 'for'",
