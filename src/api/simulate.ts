@@ -12,10 +12,13 @@ import { compilePlan } from '../plan/compilePlan.js';
 import type { Plan } from '../plan/plan.js';
 import { InputError, ProblemList, type Problem } from '../format/problem.js';
 import type { NoiseProfile } from '../noise/profile.js';
-import { buildProgram, type Program } from '../program/program.js';
+import { buildProgram, hasDrift, type Program } from '../program/program.js';
 import type { IdealState } from '../results/fidelity.js';
 import { computeFigures, DEFAULT_SEED, type Figures } from '../results/report.js';
 import { scheduleOperations, type Schedule } from '../schedule/schedule.js';
+import { deviceOperations } from '../schedule/deviceOperations.js';
+import { warnOffMap } from '../noise/couplingMap.js';
+import { warnEntryFallback } from '../noise/entryFallback.js';
 import { loadCircuit, type LoadedCircuit, type LoadOptions } from './loadCircuit.js';
 import { pauliStringProblem } from '../circuit/pauliString.js';
 
@@ -79,7 +82,7 @@ export interface Simulation {
   readonly warnings: readonly Problem[];
 }
 
-/** Schedules a loaded circuit with its profile's policy and durations. */
+/** Schedules a loaded circuit with its profile's policy, durations and readout timing (split composites as their parts). */
 export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedule {
   const durationOf = (op: Operation): number => {
     switch (op.kind) {
@@ -95,7 +98,9 @@ export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedu
         return 0;
     }
   };
-  return scheduleOperations(circuit.operations, circuit.register.n, durationOf, profile.schedule);
+  return scheduleOperations(deviceOperations(circuit.operations, profile), circuit.register.n, durationOf, profile.schedule, {
+    simultaneousMeasure: profile.simultaneousMeasure,
+  });
 }
 
 /** Measured qubits, ascending: those named by `measure` steps, or all qubits when there is none. */
@@ -141,6 +146,9 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
     if (bad !== undefined) problems.error(circuit.qubitsAt, 'bad-pauli', `--observe ${p}: ${bad}`);
   }
   const schedule = scheduleCircuit(circuit, profile);
+  const ops = schedule.items.map((it) => it.op);
+  warnEntryFallback(ops, circuit, profile, problems);
+  warnOffMap(schedule, profile.couplings, circuit.register, problems);
   const program = buildProgram(circuit, profile, schedule, problems);
   problems.throwIfErrors();
   return { schedule, program, problems };
@@ -149,7 +157,7 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
 /** The plan of kernel calls the fast engine would run for a loaded circuit (nothing is simulated). Throws InputError on bad input. */
 export function planLoaded(loaded: LoadedCircuit, options: SimulateOptions = {}): PlannedRun {
   const { schedule, program, problems } = prepare(loaded, options);
-  const plan = buildPlan(program.n, program.noisy, { fuse: options.fuse !== false });
+  const plan = buildPlan(program.n, program.noisy, { fuse: options.fuse !== false, keepDiagonal: hasDrift(loaded.profile) });
   return { schedule, program, plan, problems };
 }
 
@@ -187,7 +195,7 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     rho = runNoisy(n, program.noisy, kernels);
     ideal = runIdeal(n, program.ideal, kernels);
   } else {
-    plan = buildPlan(n, program.noisy, { fuse: options.fuse !== false });
+    plan = buildPlan(n, program.noisy, { fuse: options.fuse !== false, keepDiagonal: hasDrift(profile) });
     rho = runCompiled(compilePlan(plan), pool);
     ideal = runIdeal(n, program.ideal, fastKernels);
   }

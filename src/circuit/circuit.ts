@@ -20,6 +20,8 @@ export interface Circuit {
   readonly channels: ReadonlyMap<string, CustomChannel>;
   /** Arity of every gate name usable in this circuit (built-in and custom), for profile keys. */
   readonly gateArity: ReadonlyMap<string, number>;
+  /** Names of the composite gates (custom gates defined by `steps`). */
+  readonly compositeGates: ReadonlySet<string>;
   /** Pauli strings to report, qubit 0 leftmost. */
   readonly observe: readonly Loc<string>[];
   /** The `device:` path as written (relative to the circuit file), if any. */
@@ -68,6 +70,16 @@ export interface GateOperation extends OperationBase {
   readonly qubits: readonly number[];
   readonly unitary: CMatrix;
   readonly noise?: NoiseOverride;
+  /** Composite gates: the parts in order, on circuit qubits (used when the profile says `split: true`). */
+  readonly parts?: readonly GatePart[];
+}
+
+/** One part of a composite application, on circuit qubits; itself composite when `parts` is present. */
+export interface GatePart {
+  readonly name: string;
+  readonly qubits: readonly number[];
+  readonly unitary: CMatrix;
+  readonly parts?: readonly GatePart[];
 }
 
 /** An explicit wait of `duration` ns on one qubit (it decays as an idle qubit). */

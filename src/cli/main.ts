@@ -92,7 +92,7 @@ function buildProgram(io: CliIO): Command {
     .addOption(new Option('--observe <pauli...>', 'report ⟨P⟩ for Pauli strings, qubit 0 leftmost (repeatable or comma-separated), e.g. --observe ZZI,XXX'))
     .option('--top <k>', 'how many outcomes the report lists (default 8)', parseTop, 8)
     .option('--state', 'print per-qubit Bloch vectors (and ρ for up to 3 qubits)')
-    .option('--schedule', 'print the time schedule and idle windows')
+    .option('--schedule', 'print the time schedule, idle windows and drift (detuning, zz) per qubit and pair')
     .option('--html <file>', 'also write a self-contained HTML report: schedule timeline, outcome bars, Bloch lengths, observables')
     .option('--max-memory <size>', 'refuse runs needing more memory than this, e.g. 2GiB (default: half the machine)')
     .option('--plan', 'print the plan of kernel calls (what is fused into each pass over the density matrix) instead of running')

@@ -1,9 +1,11 @@
-import { deviceDescription } from '../api/describe.js';
+import { deviceDescription, deviceFacts } from '../api/describe.js';
 import type { Simulation } from '../api/simulate.js';
 import { operationName } from '../circuit/operationName.js';
 import { HEADLINE_FIGURES } from '../results/headlineFigures.js';
 import { topOutcomes } from '../results/topOutcomes.js';
 import { formatDuration } from '../format/duration.js';
+import { formatFrequency } from '../format/frequency.js';
+import { hasDrift } from '../program/program.js';
 import { qubitName } from '../format/register.js';
 import type { Style } from './style.js';
 
@@ -30,6 +32,10 @@ export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Sty
   const measured = r.measured.map((q) => qubitName(q, reg)).join(' ');
   kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, measured: ${measured}`);
   kv('duration', `${formatDuration(r.duration_ns)} (${r.schedule.toUpperCase()} schedule)`);
+  const facts = deviceFacts(sim);
+  if (facts.readout !== undefined) kv('readout', facts.readout);
+  if (facts.couplings !== undefined) kv('couplings', `${facts.couplings.pairs}; ${facts.couplings.offMap ? style.yellow(facts.couplings.map) : facts.couplings.map}`);
+  if (facts.drift !== undefined) kv('drift', `${facts.drift} (--schedule lists them)`);
   lines.push('');
 
   lines.push(style.bold('Fidelity with the ideal run'));
@@ -134,6 +140,26 @@ function renderSchedule(sim: Simulation, style: Style): string[] {
     lines.push(`  qubit ${qubitName(w.qubit, reg).padEnd(6)}${num(w.start).padStart(10)} → ${num(w.end).padStart(10)}  (${formatDuration(w.end - w.start)})`);
   }
   lines.push(`  ${style.dim(`total duration ${formatDuration(sim.schedule.duration)}`)}`);
+  lines.push(...renderDrift(sim, style));
+  return lines;
+}
+
+/** The always-on drift per qubit and coupled pair, with the time it acts (from 0 until measurement starts, or the end). */
+function renderDrift(sim: Simulation, style: Style): string[] {
+  const reg = sim.circuit.register;
+  const p = sim.profile;
+  if (p.couplings === null && !hasDrift(p)) return [];
+  const until = (q: number): number => sim.schedule.measureStart[q] ?? sim.schedule.duration;
+  const lines = ['', style.bold('Drift (always on, diagonal; H = Σ π·δ·Z_q + Σ (π·ζ/2)·Z_a Z_b; not in the ideal run)')];
+  p.qubits.forEach((q, i) => {
+    if (q.detuning === 0) return;
+    lines.push(`  qubit ${qubitName(i, reg).padEnd(8)}detuning ${formatFrequency(q.detuning).padStart(12)}   acts 0 → ${num(until(i))} ns`);
+  });
+  for (const c of p.couplings ?? []) {
+    const pair = `${qubitName(c.a, reg)} ${qubitName(c.b, reg)}`;
+    const zz = c.zz === 0 ? style.dim('coupled, no zz') : `zz       ${formatFrequency(c.zz).padStart(12)}   acts 0 → ${num(Math.min(until(c.a), until(c.b)))} ns`;
+    lines.push(`  pair  ${pair.padEnd(8)}${zz}`);
+  }
   return lines;
 }
 

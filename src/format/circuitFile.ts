@@ -53,7 +53,7 @@ export function readCircuit(
   }
 
   const ne = entryOf(map, 'noise');
-  const inlineNoise: ProfileSpec | null = ne === undefined ? null : (readProfile(ne.value, file, "the circuit's 'noise'", problems, 'inline') ?? null);
+  const inlineNoise: ProfileSpec | null = ne === undefined ? null : (readProfile(ne.value, file, "the circuit's 'noise'", problems, 'inline', params) ?? null);
 
   const channels: Map<string, CustomChannel> = (() => {
     const ce = entryOf(map, 'channels');
@@ -82,7 +82,11 @@ export function readCircuit(
   if (!problems.ok) return undefined;
 
   const gateArity = new Map<string, number>();
-  for (const g of gates.names()) gateArity.set(g, gates.get(g)!.qubits);
+  const compositeGates = new Set<string>();
+  for (const g of gates.names()) {
+    gateArity.set(g, gates.get(g)!.qubits);
+    if (gates.get(g)!.kind === 'composite') compositeGates.add(g);
+  }
   return {
     file,
     name,
@@ -90,6 +94,7 @@ export function readCircuit(
     params,
     channels,
     gateArity,
+    compositeGates,
     observe,
     device,
     inlineNoise,

@@ -28,6 +28,15 @@ export interface LibraryGate {
   readonly kind: 'builtin' | 'matrix' | 'composite';
   /** The exact unitary for these angles; problems found on the way are recorded. */
   unitary(angles: readonly number[], problems: ProblemList): CMatrix | undefined;
+  /** Composite gates: the parts for these angles (gate names, local targets 0..k−1, evaluated angles), in order. */
+  parts?(angles: readonly number[], problems: ProblemList): CompositePart[] | undefined;
+}
+
+/** One part of a composite gate: a gate of the library on local qubits of the composite, with its angles. */
+export interface CompositePart {
+  readonly gate: string;
+  readonly targets: readonly number[];
+  readonly angles: readonly number[];
 }
 
 interface SubStep {
@@ -128,6 +137,9 @@ export class GateLibrary {
         unitary(angles, problems) {
           return self.compositeUnitary(c.name, c.k, c.params, bodies.get(c.name) ?? [], angles, problems);
         },
+        parts(angles, problems) {
+          return self.compositeParts(c.name, c.params, bodies.get(c.name) ?? [], angles, problems);
+        },
       });
     }
     for (const c of composites) {
@@ -186,6 +198,29 @@ export class GateLibrary {
     for (const name of bodies.keys()) visit(name, { file: '', line: 0, col: 0 });
   }
 
+  private compositeParts(
+    name: string,
+    params: readonly string[],
+    body: readonly SubStep[],
+    args: readonly number[],
+    problems: ProblemList,
+  ): CompositePart[] | undefined {
+    // The composite's own parameters shadow the circuit's.
+    const env: Record<string, number> = { ...this.circuitParams };
+    params.forEach((p, i) => (env[p] = args[i]!));
+    const parts: CompositePart[] = [];
+    for (const s of body) {
+      const angles: number[] = [];
+      for (const a of s.angles) {
+        const v = readAngle(a, `angle of ${s.gate} in custom gate '${name}'`, env, problems);
+        if (v === undefined) return undefined;
+        angles.push(v);
+      }
+      parts.push({ gate: s.gate, targets: s.targets, angles });
+    }
+    return parts;
+  }
+
   private compositeUnitary(
     name: string,
     k: number,
@@ -194,24 +229,15 @@ export class GateLibrary {
     args: readonly number[],
     problems: ProblemList,
   ): CMatrix | undefined {
-    // The composite's own parameters shadow the circuit's.
-    const env: Record<string, number> = { ...this.circuitParams };
-    params.forEach((p, i) => (env[p] = args[i]!));
-    const parts: { matrix: CMatrix; targets: readonly number[] }[] = [];
-    for (const s of body) {
-      const g = this.get(s.gate);
-      if (g === undefined) return undefined;
-      const angles: number[] = [];
-      for (const a of s.angles) {
-        const v = readAngle(a, `angle of ${s.gate} in custom gate '${name}'`, env, problems);
-        if (v === undefined) return undefined;
-        angles.push(v);
-      }
-      const m = g.unitary(angles, problems);
+    const parts = this.compositeParts(name, params, body, args, problems);
+    if (parts === undefined) return undefined;
+    const placed: { matrix: CMatrix; targets: readonly number[] }[] = [];
+    for (const p of parts) {
+      const m = this.get(p.gate)?.unitary(p.angles, problems);
       if (m === undefined) return undefined;
-      parts.push({ matrix: m, targets: s.targets });
+      placed.push({ matrix: m, targets: p.targets });
     }
-    return sequenceUnitary(k, parts);
+    return sequenceUnitary(k, placed);
   }
 }
 

@@ -6,6 +6,7 @@ import {
   readBoolean,
   readChoice,
   readDuration,
+  readFrequency,
   readProbability,
   readString,
   unknownKey,
@@ -25,12 +26,25 @@ export interface QubitEntrySpec {
   t2?: Loc<number>;
   excited?: Loc<number>;
   readout?: Loc<Readout>;
+  /** Detuning δ in Hz from the drive frame: H_q = π·δ·Z_q (the qubit turns by rz(2π·δ·τ) over τ). */
+  detuning?: Loc<number>;
+}
+
+/** One `couplings:` entry: an unordered pair as written ("a b") and its always-on ZZ strength ζ in Hz. */
+export interface CouplingSpec {
+  readonly refs: readonly [string, string];
+  /** ζ in Hz: H_ab = (π·ζ/2)·Z_a Z_b. */
+  zz?: Loc<number>;
 }
 
 /** One `gates:` entry of a noise profile as written (duration in ns). */
 export interface GateEntrySpec {
   duration?: Loc<number>;
   thermal?: Loc<boolean>;
+  /** Composite gates: run as their parts, each scheduled and noisy under its own entry (default false). */
+  split?: Loc<boolean>;
+  /** `measure` entry only: every measure step starts all its qubits' measurements together (default false). */
+  simultaneous?: Loc<boolean>;
   kinds: NoiseKindsSpec;
 }
 
@@ -49,18 +63,22 @@ export interface ProfileSpec {
   name?: Loc<string>;
   qubits: KeyedSpec<QubitEntrySpec>[];
   gates: KeyedSpec<GateEntrySpec>[];
+  /** The coupling map (present, possibly empty, when the profile has a `couplings:` section). */
+  couplings?: KeyedSpec<CouplingSpec>[];
   idle?: Loc<'thermal' | 'none'>;
   schedule?: Loc<'asap' | 'alap'>;
 }
 
 /** The top-level keys of a noise profile. */
-export const PROFILE_KEYS = ['name', 'qubits', 'gates', 'idle', 'schedule'] as const;
+export const PROFILE_KEYS = ['name', 'qubits', 'couplings', 'gates', 'idle', 'schedule'] as const;
 /** The keys of one `qubits:` entry of a noise profile. */
-export const QUBIT_KEYS = ['t1', 't2', 'excited', 'readout'] as const;
+export const QUBIT_KEYS = ['t1', 't2', 'excited', 'readout', 'detuning'] as const;
 /** The keys of a `readout:` map (P(read 1 | prepared 0), P(read 0 | prepared 1)). */
 export const READOUT_KEYS = ['zero_as_one', 'one_as_zero'] as const;
+/** The keys of one `couplings:` entry (a qubit pair) of a noise profile. */
+export const COUPLING_KEYS = ['zz'] as const;
 /** The keys of one `gates:` entry of a noise profile. */
-export const GATE_KEYS = ['duration', 'thermal', ...NOISE_KIND_KEYS] as const;
+export const GATE_KEYS = ['duration', 'thermal', 'split', 'simultaneous', ...NOISE_KIND_KEYS] as const;
 
 /** Reads a noise profile map (device file root or inline `noise:`) into a ProfileSpec. */
 export function readProfile(
@@ -69,6 +87,7 @@ export function readProfile(
   where: string,
   problems: ProblemList,
   source: 'device' | 'inline',
+  env: Readonly<Record<string, number>> = {},
 ): ProfileSpec | undefined {
   const map = asMap(node, where, problems);
   if (map === undefined) return undefined;
@@ -102,14 +121,45 @@ export function readProfile(
       case 'gates': {
         const m = asMap(e.value, `'gates' of ${where}`, problems);
         if (m !== undefined) for (const g of m.entries) {
-          const entry = readGateEntry(g.value, `gate entry '${g.key}'`, problems);
+          const entry = readGateEntry(g.value, `gate entry '${g.key}'`, problems, env);
           if (entry !== undefined) spec.gates.push({ key: g.key.trim().replace(/\s+/g, ' '), keyAt: g.keyAt, entry });
+        }
+        break;
+      }
+      case 'couplings': {
+        spec.couplings = [];
+        if (e.value.kind === 'scalar' && e.value.value === null) break; // `couplings:` with nothing: a map with no pairs
+        const m = asMap(e.value, `'couplings' of ${where} (pairs "a b" → { zz: … })`, problems);
+        if (m !== undefined) for (const c of m.entries) {
+          const entry = readCouplingEntry(c.key, c.keyAt, c.value, problems);
+          if (entry !== undefined) spec.couplings.push({ key: c.key, keyAt: c.keyAt, entry });
         }
         break;
       }
     }
   }
   return spec;
+}
+
+/** A `couplings:` entry: the key names two qubits ("0 1", "q0 q1"); the value is a map with an optional `zz`. */
+function readCouplingEntry(key: string, keyAt: Loc<string>['at'], node: YNode, problems: ProblemList): CouplingSpec | undefined {
+  const where = `coupling '${key}'`;
+  const refs = key.trim().split(/\s+/);
+  if (refs.length !== 2 || refs[0] === '') {
+    problems.error(keyAt, 'bad-coupling', `${where}: a coupling names two qubits separated by a space, e.g. "0 1" or "q0 q1"`);
+    return undefined;
+  }
+  const out: CouplingSpec = { refs: [refs[0]!, refs[1]!] };
+  if (node.kind === 'scalar' && node.value === null) return out;
+  const m = asMap(node, `${where} (a map such as { zz: 80kHz }, or {} for a coupling without a ZZ term)`, problems);
+  if (m === undefined) return undefined;
+  checkKeys(m, COUPLING_KEYS, where, problems);
+  for (const e of m.entries) {
+    if (e.key !== 'zz') continue;
+    const hz = readFrequency(e.value, `'zz' of ${where}`, problems);
+    if (hz !== undefined) out.zz = { value: hz, at: e.value.at };
+  }
+  return out;
 }
 
 function readQubitEntry(node: YNode, where: string, problems: ProblemList): QubitEntrySpec | undefined {
@@ -133,6 +183,9 @@ function readQubitEntry(node: YNode, where: string, problems: ProblemList): Qubi
     } else if (e.key === 'readout') {
       const r = readReadout(e.value, what, problems);
       if (r !== undefined) out.readout = { value: r, at: e.value.at };
+    } else if (e.key === 'detuning') {
+      const hz = readFrequency(e.value, what, problems);
+      if (hz !== undefined) out.detuning = { value: hz, at: e.value.at };
     }
   }
   return out;
@@ -155,7 +208,7 @@ function readReadout(node: YNode, what: string, problems: ProblemList): Readout 
   return zeroAsOne === undefined || oneAsZero === undefined ? undefined : { zeroAsOne, oneAsZero };
 }
 
-function readGateEntry(node: YNode, where: string, problems: ProblemList): GateEntrySpec | undefined {
+function readGateEntry(node: YNode, where: string, problems: ProblemList, env: Readonly<Record<string, number>>): GateEntrySpec | undefined {
   const m: YMap | undefined = asMap(node, where, problems);
   if (m === undefined) return undefined;
   const out: GateEntrySpec = { kinds: {} };
@@ -167,7 +220,10 @@ function readGateEntry(node: YNode, where: string, problems: ProblemList): GateE
     } else if (e.key === 'thermal') {
       const b = readBoolean(e.value, what, problems);
       if (b !== undefined) out.thermal = { value: b, at: e.value.at };
-    } else if (!readNoiseKindEntry(e, out.kinds, where, problems)) {
+    } else if (e.key === 'split' || e.key === 'simultaneous') {
+      const b = readBoolean(e.value, what, problems);
+      if (b !== undefined) out[e.key] = { value: b, at: e.value.at };
+    } else if (!readNoiseKindEntry(e, out.kinds, where, problems, env)) {
       unknownKey(e, GATE_KEYS, where, problems);
     }
   }

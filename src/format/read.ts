@@ -1,5 +1,6 @@
 import { suggest } from '../circuit/suggest.js';
 import { parseDuration } from './duration.js';
+import { parseFrequency } from './frequency.js';
 import type { ProblemList, SourcePosition } from './problem.js';
 import { describe, type YEntry, type YMap, type YNode, type YScalar } from './yamlTree.js';
 
@@ -77,16 +78,39 @@ export function readProbability(node: YNode, what: string, problems: ProblemList
 
 /** A duration with a unit, in nanoseconds. */
 export function readDuration(node: YNode, what: string, problems: ProblemList): number | undefined {
+  return readWithUnit(node, what, problems, 'bad-duration', 'a duration with a unit such as 35ns or 1.2us', (t) => {
+    const r = parseDuration(t);
+    return 'error' in r ? r : { value: r.ns };
+  });
+}
+
+/** A frequency with a unit (Hz, kHz, MHz, GHz), in hertz; either sign. */
+export function readFrequency(node: YNode, what: string, problems: ProblemList): number | undefined {
+  return readWithUnit(node, what, problems, 'bad-frequency', 'a frequency with a unit such as 80kHz or -1.5MHz', (t) => {
+    const r = parseFrequency(t);
+    return 'error' in r ? r : { value: r.hz };
+  });
+}
+
+/** A scalar read as a number with a unit by `parse`; problems under `code`. */
+function readWithUnit(
+  node: YNode,
+  what: string,
+  problems: ProblemList,
+  code: string,
+  expected: string,
+  parse: (text: string) => { value: number } | { error: string },
+): number | undefined {
   if (node.kind !== 'scalar' || node.value === null || typeof node.value === 'boolean') {
-    problems.error(node.at, 'bad-duration', `${what} must be a duration with a unit such as 35ns or 1.2us, not ${describe(node)}`);
+    problems.error(node.at, code, `${what} must be ${expected}, not ${describe(node)}`);
     return undefined;
   }
-  const r = parseDuration(String(node.value));
+  const r = parse(String(node.value));
   if ('error' in r) {
-    problems.error(node.at, 'bad-duration', `${what}: ${r.error}`);
+    problems.error(node.at, code, `${what}: ${r.error}`);
     return undefined;
   }
-  return r.ns;
+  return r.value;
 }
 
 /** true or false. */

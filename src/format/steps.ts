@@ -1,8 +1,8 @@
 import { suggest } from '../circuit/suggest.js';
-import type { CustomChannel, NoiseOverride, Operation, Register } from '../circuit/circuit.js';
+import type { CustomChannel, GatePart, NoiseOverride, Operation, Register } from '../circuit/circuit.js';
 import { readAngle } from './angles.js';
 import { angleNodes, type GateLibrary } from './gateLibrary.js';
-import { readNoiseKinds } from './noiseKindsSpec.js';
+import { misplacedZz, readNoiseKinds, type NoiseKindsSpec } from './noiseKindsSpec.js';
 import type { ProblemList, SourcePosition } from './problem.js';
 import { asMap, readDuration, readString } from './read.js';
 import { qubitName } from './register.js';
@@ -62,10 +62,10 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
       }
       const nm = asMap(noiseEntry.value, `'noise' of ${where}`, problems);
       if (nm === undefined) return;
-      const kinds = readNoiseKinds(nm, `${where}`, problems, false);
+      const kinds = readNoiseKinds(nm, `${where}`, problems, false, ctx.params);
       const apps = readTargets(on.value, { kind: 'channel' }, ctx.register, where, problems);
       if (apps === undefined) return;
-      if (!checkChannelArity(kinds.channel, apps, ctx, where, problems) || afterMeasure(apps)) return;
+      if (!checkChannelArity(kinds.channel, apps, ctx, where, problems) || !checkZzArity(kinds, apps, where, problems, true) || afterMeasure(apps)) return;
       for (const qubits of apps) ops.push({ ...base, kind: 'channel', qubits, noise: { kinds, at: noiseEntry.value.at } });
       return;
     }
@@ -104,7 +104,11 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
       }
       case 'reset': {
         if (!checkModifiers(shape, ['noise', 'label'], 'reset', where, problems)) return;
-        const noise = readOverride(shape.modifiers.get('noise'), where, false, problems);
+        const noise = readOverride(shape.modifiers.get('noise'), where, false, ctx.params, problems);
+        if (noise?.kinds.coherent !== undefined) {
+          problems.error(noise.kinds.coherent.at, 'coherent-on-reset', `${where}: 'coherent' needs a gate to follow; a reset has no unitary to over- or under-rotate`);
+          return;
+        }
         const apps = readTargets(targetNode, { kind: 'each' }, ctx.register, where, problems);
         if (noise === null || apps === undefined || afterMeasure(apps)) return;
         if (noise !== undefined && !checkChannelArity(noise.kinds.channel, apps, ctx, where, problems)) return;
@@ -115,10 +119,10 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
         const gate = ctx.gates.get(action)!;
         if (!checkModifiers(shape, ['angle', 'angles', 'noise', 'label'], `gate ${action}`, where, problems)) return;
         const angleNs = angleNodes(shape.modifiers, gate, shape.action.keyAt, where, problems);
-        const noise = readOverride(shape.modifiers.get('noise'), where, true, problems);
+        const noise = readOverride(shape.modifiers.get('noise'), where, true, ctx.params, problems);
         const apps = readTargets(targetNode, gate.qubits === 1 ? { kind: 'each' } : { kind: 'tuple', arity: gate.qubits }, ctx.register, where, problems);
         if (angleNs === undefined || noise === null || apps === undefined || afterMeasure(apps)) return;
-        if (noise !== undefined && !checkChannelArity(noise.kinds.channel, apps, ctx, where, problems)) return;
+        if (noise !== undefined && (!checkChannelArity(noise.kinds.channel, apps, ctx, where, problems) || !checkZzArity(noise.kinds, apps, where, problems))) return;
         const angles: number[] = [];
         for (const a of angleNs) {
           const v = readAngle(a, `angle of ${where}`, ctx.params, problems);
@@ -127,13 +131,34 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
         }
         const unitary = gate.unitary(angles, problems);
         if (unitary === undefined) return;
+        const local = gate.kind === 'composite' ? partsOf(gate.name, angles, Array.from({ length: gate.qubits }, (_, i) => i), ctx.gates, problems) : undefined;
         for (const qubits of apps) {
-          ops.push({ ...base, kind: 'gate', name: gate.name, qubits, unitary, ...(noise ? { noise } : {}) });
+          const parts = local === undefined ? {} : { parts: placeParts(local, qubits) };
+          ops.push({ ...base, kind: 'gate', name: gate.name, qubits, unitary, ...(noise ? { noise } : {}), ...parts });
         }
       }
     }
   });
   return ops;
+}
+
+/** The parts of composite `name` on `qubits`, nested composites expanded into their own parts. */
+function partsOf(name: string, angles: readonly number[], qubits: readonly number[], gates: GateLibrary, problems: ProblemList): GatePart[] {
+  const parts = gates.get(name)?.parts?.(angles, problems) ?? [];
+  const out: GatePart[] = [];
+  for (const p of parts) {
+    const g = gates.get(p.gate);
+    const unitary = g?.unitary(p.angles, problems);
+    if (g === undefined || unitary === undefined) continue;
+    const pq = p.targets.map((t) => qubits[t]!);
+    out.push({ name: g.name, qubits: pq, unitary, ...(g.kind === 'composite' ? { parts: partsOf(g.name, p.angles, pq, gates, problems) } : {}) });
+  }
+  return out;
+}
+
+/** Parts computed on local qubits 0..k−1, moved onto an application's qubits. */
+function placeParts(parts: readonly GatePart[], qubits: readonly number[]): GatePart[] {
+  return parts.map((p) => ({ ...p, qubits: p.qubits.map((q) => qubits[q]!), ...(p.parts !== undefined ? { parts: placeParts(p.parts, qubits) } : {}) }));
 }
 
 function readLabel(shape: StepShape, where: string, problems: ProblemList): { label?: string } {
@@ -144,7 +169,13 @@ function readLabel(shape: StepShape, where: string, problems: ProblemList): { la
 }
 
 /** A step's `noise:` — undefined when absent, null when invalid, an override otherwise. */
-function readOverride(e: YEntry | undefined, where: string, allowError: boolean, problems: ProblemList): NoiseOverride | undefined | null {
+function readOverride(
+  e: YEntry | undefined,
+  where: string,
+  allowError: boolean,
+  env: Readonly<Record<string, number>>,
+  problems: ProblemList,
+): NoiseOverride | undefined | null {
   if (e === undefined) return undefined;
   if (e.value.kind === 'scalar' && e.value.value === 'none') return { kinds: {}, at: e.value.at };
   if (e.value.kind !== 'map') {
@@ -152,7 +183,7 @@ function readOverride(e: YEntry | undefined, where: string, allowError: boolean,
     return null;
   }
   const before = problems.errors.length;
-  const kinds = readNoiseKinds(e.value, `'noise' of ${where}`, problems, allowError);
+  const kinds = readNoiseKinds(e.value, `'noise' of ${where}`, problems, allowError, env);
   return problems.errors.length > before ? null : { kinds, at: e.value.at };
 }
 
@@ -179,6 +210,18 @@ function checkChannelArity(
           ? `give its ${ch.qubits} qubits as one inner list, e.g. on: [[${Array.from({ length: ch.qubits }, (_, i) => i).join(', ')}]]`
           : `use a ${app.length}-qubit or a 1-qubit channel`;
       problems.error(ref.at, 'channel-arity', `${where}: channel '${ref.value}' acts on ${ch.qubits} qubits but the application has ${app.length}; ${hint}`);
+      return false;
+    }
+  }
+  return true;
+}
+
+/** `coherent: {zz: …}` needs 2-qubit applications (rzz acts on a pair). */
+function checkZzArity(kinds: NoiseKindsSpec, apps: readonly (readonly number[])[], where: string, problems: ProblemList, standalone = false): boolean {
+  for (const app of apps) {
+    const at = misplacedZz(kinds, app.length);
+    if (at !== undefined) {
+      problems.error(at, 'zz-arity', `${where}: 'zz' of 'coherent' acts on two qubits, but the application has ${app.length}; leave 'zz' out here${standalone && app.length === 1 ? ' (a flat list in on: gives 1-qubit applications; write [[a, b]] for a pair)' : ''}`);
       return false;
     }
   }

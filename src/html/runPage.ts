@@ -3,7 +3,7 @@
  * as a timeline with its costliest idle windows, outcome bars (ideal / noisy / measured),
  * per-qubit Bloch vector lengths, observables, sampled counts and warnings.
  */
-import { deviceDescription } from '../api/describe.js';
+import { deviceDescription, deviceFacts } from '../api/describe.js';
 import type { Simulation } from '../api/simulate.js';
 import { operationName } from '../circuit/operationName.js';
 import { formatDuration } from '../format/duration.js';
@@ -47,10 +47,12 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
       `</div>`,
   });
 
+  const facts = deviceFacts(sim);
   const tl = timelineData(sim);
   const idleNote =
     sim.profile.idle === 'thermal'
-      ? 'Idle windows are the thin bands, shaded by their own cost: 1 − F_avg of the thermal relaxation the qubit undergoes while it waits (the number printed where the band is wide enough).'
+      ? 'Idle windows are the thin bands, shaded by their own cost: 1 − F_avg of the thermal relaxation the qubit undergoes while it waits (the number printed where the band is wide enough)' +
+        (facts.drift !== undefined ? '; the coherent drift of the device (detuning, zz) acts during the waits too and is not in this shading.' : '.')
       : 'The profile says idle: none, so idle windows (the thin bands) cost nothing.';
   const worst = [...sim.schedule.idleWindows]
     .map((w) => ({ w, cost: idleWindowCost(sim, w.qubit, w.end - w.start) }))
@@ -174,6 +176,9 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
       ['measured', `${bitOrder} (bit order of every outcome, left to right)`],
       ['duration', formatDuration(r.duration_ns)],
       ['schedule', `${r.schedule.toUpperCase()}; idle windows ${sim.profile.idle === 'thermal' ? 'relax (idle: thermal)' : 'do not relax (idle: none)'}`],
+      ...(facts.readout !== undefined ? [['readout', facts.readout] as const] : []),
+      ...(facts.couplings !== undefined ? [['couplings', `${facts.couplings.pairs}; ${facts.couplings.map}`] as const] : []),
+      ...(facts.drift !== undefined ? [['drift', `${facts.drift} (not in the idle shading, which is relaxation only)`] as const] : []),
     ]),
   };
   return page(

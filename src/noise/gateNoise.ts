@@ -17,6 +17,7 @@ import {
   phaseFlip,
   thermalRelaxation,
 } from './channels.js';
+import { coherentRotation, zzRotation } from './coherent.js';
 import { entanglementFidelity } from './fidelity.js';
 import { type NoiseKinds, NOISE_KIND_ORDER } from './kinds.js';
 
@@ -119,6 +120,7 @@ export function coherenceLimitedInfidelity(k: number, duration: number, decay: r
 
 /**
  * The channels that follow one application of a k-qubit gate, in the contract's order:
+ * the coherent error (exp(−i(x·X + y·Y + z·Z)/2) on each qubit, then rzz(zz) on a 2-qubit gate) →
  * thermal relaxation for `duration` on each qubit (when `thermal` is on and the qubit has a
  * finite T1 or T2) → amplitude_damping, phase_damping, bit_flip, phase_flip, bit_phase_flip,
  * pauli (each on every gate qubit) → channel (custom; k-qubit on all gate qubits in order, or
@@ -140,6 +142,18 @@ export function gateNoise(input: GateNoiseInput): GateNoise {
   const all = Array.from({ length: k }, (_, i) => i);
   const placed: PlacedChannel[] = [];
   let thermalCount = 0;
+
+  const coherent = kinds.coherent;
+  if (coherent !== undefined) {
+    if (coherent.x !== 0 || coherent.y !== 0 || coherent.z !== 0) {
+      const u = coherentRotation(coherent.x, coherent.y, coherent.z);
+      for (let q = 0; q < k; q++) placed.push({ targets: [q], kraus: [u], source: 'coherent' });
+    }
+    if (coherent.zz !== 0) {
+      if (k !== 2) throw new RangeError(`gateNoise: a coherent zz error needs a 2-qubit gate, not ${k} qubits`);
+      placed.push({ targets: all, kraus: [zzRotation(coherent.zz)], source: 'coherent' });
+    }
+  }
 
   if (thermal) {
     if (decay.length !== k) throw new RangeError(`gateNoise: ${decay.length} decay entries for a ${k}-qubit gate`);
@@ -219,7 +233,7 @@ export function gateNoise(input: GateNoiseInput): GateNoise {
     // The contract: when the channel before the solved depolarizing already exceeds r, warn and
     // add nothing — also where N is worse than full depolarization (denom < 0) and some p would
     // bring the infidelity back down to r.
-    const kindsCount = placed.length - thermalCount;
+    const kindsCount = placed.length - thermalCount; // the coherent error counts as listed noise
     const cause =
       thermalCount > 0 && kindsCount > 0
         ? 'relaxation and the listed noise already cause'

@@ -15,6 +15,19 @@ export interface NoiseKinds {
   pauli?: { x: number; y: number; z: number };
   /** Name of a custom channel from the circuit's `channels:` map. */
   channel?: string;
+  /**
+   * Coherent error right after the ideal U (angles in radians): exp(−i(x·X + y·Y + z·Z)/2) on
+   * each qubit of the application, then rzz(zz) on its two qubits (2-qubit applications only).
+   */
+  coherent?: CoherentError;
+}
+
+/** The angles (radians) of a coherent gate error; see NoiseKinds.coherent. */
+export interface CoherentError {
+  readonly x: number;
+  readonly y: number;
+  readonly z: number;
+  readonly zz: number;
 }
 
 /** The order in which listed noise kinds act after a gate (the contract's order). */
@@ -29,5 +42,5 @@ export const NOISE_KIND_ORDER = [
   'depolarizing',
 ] as const;
 
-/** Every key a noise annotation may hold. */
-export const NOISE_KIND_KEYS = ['error', ...NOISE_KIND_ORDER] as const;
+/** Every key a noise annotation may hold (`coherent` acts first, right after U; `error` is solved last). */
+export const NOISE_KIND_KEYS = ['error', 'coherent', ...NOISE_KIND_ORDER] as const;

@@ -1,7 +1,7 @@
 import { GATE_ALIASES } from '../circuit/gates.js';
 import { suggest } from '../circuit/suggest.js';
 import type { Circuit } from '../circuit/circuit.js';
-import type { Loc, NoiseKindsSpec } from '../format/noiseKindsSpec.js';
+import { misplacedZz, type Loc, type NoiseKindsSpec } from '../format/noiseKindsSpec.js';
 import { ProblemList, type SourcePosition } from '../format/problem.js';
 import type { GateEntrySpec, ProfileSpec, QubitEntrySpec, Readout } from '../format/profileSpec.js';
 import { qubitName, resolveQubit } from '../format/register.js';
@@ -13,6 +13,15 @@ export interface QubitNoise {
   /** Equilibrium excited-state population p_e the qubit relaxes towards. */
   readonly excited: number;
   readonly readout: Readout;
+  /** Detuning δ in Hz: the always-on drift H_q = π·δ·Z_q (0 = none). */
+  readonly detuning: number;
+}
+
+/** A coupled pair of the device's coupling map, a < b, with its always-on ZZ strength ζ in Hz (H = (π·ζ/2)·Z_a Z_b; 0 = none). */
+export interface Coupling {
+  readonly a: number;
+  readonly b: number;
+  readonly zz: number;
 }
 
 /** A gate (or reset) entry after precedence: duration in ns, relaxation during it, noise kinds. */
@@ -20,6 +29,10 @@ export interface GateEntry {
   readonly duration: number;
   readonly thermal: boolean;
   readonly kinds: NoiseKindsSpec;
+  /** Run a composite gate as its parts (each under its own entry) instead of as one calibrated gate. */
+  readonly split: boolean;
+  /** True when neither a name entry nor a tuple entry exists, so every value came from `all`. */
+  readonly fromAll: boolean;
 }
 
 /** A noise profile resolved against one circuit's register and gate names. */
@@ -32,6 +45,10 @@ export interface NoiseProfile {
   readonly schedule: 'asap' | 'alap';
   /** Duration of a measurement, ns. */
   readonly measureDuration: number;
+  /** True when every measure step starts all its qubits' measurements together (the `measure` entry's `simultaneous`). */
+  readonly simultaneousMeasure: boolean;
+  /** The coupling map, or null when the profile has no `couplings:` section (then nothing is checked). */
+  readonly couplings: readonly Coupling[] | null;
   /** The reset entry (thermal is always false: no relaxation during a reset). */
   readonly reset: GateEntry;
   /** The entry for gate `name` on `qubits`: tuple entry > name entry > `all`, merged field by field. */
@@ -40,14 +57,16 @@ export interface NoiseProfile {
 
 /** The noiseless profile: no relaxation, no readout error, zero durations, ASAP. */
 export function noiselessProfile(n: number): NoiseProfile {
-  const q: QubitNoise = { t1: Infinity, t2: Infinity, excited: 0, readout: { zeroAsOne: 0, oneAsZero: 0 } };
-  const empty: GateEntry = { duration: 0, thermal: false, kinds: {} };
+  const q: QubitNoise = { t1: Infinity, t2: Infinity, excited: 0, readout: { zeroAsOne: 0, oneAsZero: 0 }, detuning: 0 };
+  const empty: GateEntry = { duration: 0, thermal: false, kinds: {}, split: false, fromAll: true };
   return {
     name: null,
     qubits: Array.from({ length: n }, () => q),
     idle: 'none',
     schedule: 'asap',
     measureDuration: 0,
+    simultaneousMeasure: false,
+    couplings: null,
     reset: empty,
     gateEntry: () => empty,
   };
@@ -56,12 +75,15 @@ export function noiselessProfile(n: number): NoiseProfile {
 interface PartialGate {
   duration?: Loc<number>;
   thermal?: Loc<boolean>;
+  split?: Loc<boolean>;
+  simultaneous?: Loc<boolean>;
   kinds: NoiseKindsSpec;
 }
 
 /**
  * Field-by-field merge of two gate entries, `over` winning; `error` and `depolarizing`
- * replace each other (the more specific or later one wins).
+ * replace each other (the more specific or later one wins); `pauli` and `coherent` are one
+ * field each, replaced whole.
  */
 export function mergeGateEntries(base: PartialGate, over: PartialGate): PartialGate {
   const kinds: NoiseKindsSpec = { ...base.kinds };
@@ -71,6 +93,8 @@ export function mergeGateEntries(base: PartialGate, over: PartialGate): PartialG
   return {
     ...(over.duration ?? base.duration ? { duration: over.duration ?? base.duration } : {}),
     ...(over.thermal ?? base.thermal ? { thermal: over.thermal ?? base.thermal } : {}),
+    ...(over.split ?? base.split ? { split: over.split ?? base.split } : {}),
+    ...(over.simultaneous ?? base.simultaneous ? { simultaneous: over.simultaneous ?? base.simultaneous } : {}),
     kinds,
   };
 }
@@ -101,8 +125,39 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
   const byTuple = new Map<string, PartialGate>();
   let measure: PartialGate = { kinds: {} };
   let reset: PartialGate = { kinds: {} };
+  let couplingMap: Map<string, { a: number; b: number; zz?: Loc<number> }> | null = null;
 
   for (const spec of specs) {
+    if (spec.couplings !== undefined) {
+      couplingMap ??= new Map();
+      const seenHere = new Map<string, string>();
+      for (const { key, keyAt, entry } of spec.couplings) {
+        const where = `coupling '${key}'`;
+        if (entry.refs.some((r) => beyondRegister(spec, r, reg))) continue;
+        const qs: number[] = [];
+        for (const r of entry.refs) {
+          const q = resolveQubit(r, reg);
+          if (typeof q !== 'number') problems.error(keyAt, 'bad-qubit', `${where}: ${q.error}`);
+          else qs.push(q);
+        }
+        if (qs.length !== 2) continue;
+        if (qs[0] === qs[1]) {
+          problems.error(keyAt, 'coupling-self', `${where} names qubit ${qubitName(qs[0]!, reg)} twice; a coupling joins two different qubits`);
+          continue;
+        }
+        const a = Math.min(qs[0]!, qs[1]!);
+        const b = Math.max(qs[0]!, qs[1]!);
+        const pk = `${a} ${b}`;
+        const earlier = seenHere.get(pk);
+        if (earlier !== undefined) {
+          problems.error(keyAt, 'repeated-coupling', `${where} repeats the pair '${earlier}' (pairs are unordered); list each pair once`);
+          continue;
+        }
+        seenHere.set(pk, key);
+        const old = couplingMap.get(pk) ?? { a, b };
+        couplingMap.set(pk, entry.zz !== undefined ? { ...old, zz: entry.zz } : old);
+      }
+    }
     if (spec.name) name = spec.name.value;
     if (spec.idle) idle = spec.idle.value;
     if (spec.schedule) schedule = spec.schedule.value;
@@ -122,7 +177,7 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
     for (const { key, keyAt, entry } of spec.gates) {
       const where = `gate entry '${key}'`;
       if (key === 'all') {
-        gateAll = mergeGateEntries(gateAll, entry);
+        if (checkAllEntry(entry, problems)) gateAll = mergeGateEntries(gateAll, entry);
       } else if (key === 'measure') {
         if (checkMeasureEntry(entry, where, problems)) measure = mergeGateEntries(measure, entry);
       } else if (key === 'reset') {
@@ -142,6 +197,19 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
           continue;
         }
         if (!checkChannelRef(entry.kinds, arity, circuit, where, problems)) continue;
+        const zzAt = misplacedZz(entry.kinds, arity);
+        if (zzAt !== undefined) {
+          problems.error(zzAt, 'zz-arity', `${where}: 'zz' of 'coherent' is a 2-qubit rotation, and ${gate} acts on ${arity} qubit${arity === 1 ? '' : 's'}`);
+          continue;
+        }
+        if (entry.split !== undefined && !circuit.compositeGates.has(gate)) {
+          problems.error(entry.split.at, 'split-not-composite', `${where}: 'split' runs a composite gate (one defined by 'steps' under 'gates:') as its parts; ${gate} is not one`);
+          continue;
+        }
+        if (entry.simultaneous !== undefined) {
+          problems.error(entry.simultaneous.at, 'bad-gate-entry', `${where}: 'simultaneous' belongs in the 'measure' entry`);
+          continue;
+        }
         if (parts.length === 1) {
           byName.set(gate, mergeGateEntries(byName.get(gate) ?? { kinds: {} }, entry));
           continue;
@@ -182,13 +250,21 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
         `qubit ${qubitName(q, reg)}: t2 = ${e.t2.value} ns exceeds 2·t1 = ${2 * t1} ns, which no physical qubit allows (t2 ≤ 2·t1)`,
       );
     }
-    return { t1, t2, excited: e.excited?.value ?? 0, readout: e.readout?.value ?? { zeroAsOne: 0, oneAsZero: 0 } };
+    return {
+      t1,
+      t2,
+      excited: e.excited?.value ?? 0,
+      readout: e.readout?.value ?? { zeroAsOne: 0, oneAsZero: 0 },
+      detuning: e.detuning?.value ?? 0,
+    };
   });
 
-  const finish = (p: PartialGate, thermalDefault: boolean): GateEntry => ({
+  const finish = (p: PartialGate, thermalDefault: boolean, fromAll: boolean): GateEntry => ({
     duration: p.duration?.value ?? 0,
     thermal: p.thermal?.value ?? thermalDefault,
     kinds: p.kinds,
+    split: p.split?.value ?? false,
+    fromAll,
   });
   const cache = new Map<string, GateEntry>();
   return {
@@ -197,7 +273,9 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
     idle,
     schedule,
     measureDuration: measure.duration?.value ?? 0,
-    reset: { ...finish(reset, false), thermal: false },
+    simultaneousMeasure: measure.simultaneous?.value ?? false,
+    couplings: couplingMap === null ? null : [...couplingMap.values()].sort((x, y) => x.a - y.a || x.b - y.b).map((c) => ({ a: c.a, b: c.b, zz: c.zz?.value ?? 0 })),
+    reset: { ...finish(reset, false, false), thermal: false },
     gateEntry(gate, qs) {
       const tk = tupleKey(gate, qs);
       let e = cache.get(tk);
@@ -207,7 +285,7 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
         if (named) m = mergeGateEntries(m, named);
         const tuple = byTuple.get(tk);
         if (tuple) m = mergeGateEntries(m, tuple);
-        e = finish(m, true);
+        e = finish(m, true, named === undefined && tuple === undefined);
         cache.set(tk, e);
       }
       return e;
@@ -228,15 +306,43 @@ function tupleKey(gate: string, qubits: readonly number[]): string {
 }
 
 function checkMeasureEntry(e: GateEntrySpec, where: string, problems: ProblemList): boolean {
-  const extra = [e.thermal?.at, ...Object.values(e.kinds).map((k) => k?.at)].filter((x): x is SourcePosition => x !== undefined);
+  const extra = [e.thermal?.at, e.split?.at, ...Object.values(e.kinds).map((k) => k?.at)].filter((x): x is SourcePosition => x !== undefined);
   if (extra.length > 0) {
-    problems.error(extra[0]!, 'bad-measure-entry', `${where}: a measurement takes only 'duration'; its errors are the qubits' 'readout' probabilities`);
+    problems.error(extra[0]!, 'bad-measure-entry', `${where}: a measurement takes only 'duration' and 'simultaneous'; its errors are the qubits' 'readout' probabilities`);
+    return false;
+  }
+  return true;
+}
+
+/** The `all` entry applies to every gate, first of all to 1-qubit ones: no `zz`, no `split`, no `simultaneous`. */
+function checkAllEntry(e: GateEntrySpec, problems: ProblemList): boolean {
+  const where = "gate entry 'all'";
+  const zzAt = misplacedZz(e.kinds, 1);
+  if (zzAt !== undefined) {
+    problems.error(zzAt, 'zz-arity', `${where}: 'zz' of 'coherent' is a 2-qubit rotation; give it in a 2-qubit gate's entry (e.g. cz) instead of 'all'`);
+    return false;
+  }
+  if (e.split !== undefined) {
+    problems.error(e.split.at, 'split-not-composite', `${where}: 'split' belongs in the entry of a composite gate, by its name`);
+    return false;
+  }
+  if (e.simultaneous !== undefined) {
+    problems.error(e.simultaneous.at, 'bad-gate-entry', `${where}: 'simultaneous' belongs in the 'measure' entry`);
     return false;
   }
   return true;
 }
 
 function checkResetEntry(e: GateEntrySpec, where: string, problems: ProblemList): boolean {
+  if (e.kinds.coherent !== undefined) {
+    problems.error(e.kinds.coherent.at, 'coherent-on-reset', `${where}: 'coherent' needs a gate to follow; a reset has no unitary to over- or under-rotate`);
+    return false;
+  }
+  const misplaced = e.split ?? e.simultaneous;
+  if (misplaced !== undefined) {
+    problems.error(misplaced.at, 'bad-reset-entry', `${where}: a reset takes 'duration' and noise kinds only`);
+    return false;
+  }
   if (e.thermal !== undefined) {
     problems.error(e.thermal.at, 'bad-reset-entry', `${where}: a reset has no relaxation during it; 'thermal' does not apply`);
     return false;

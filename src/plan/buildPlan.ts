@@ -20,6 +20,8 @@ import type { Plan, PlanStep } from './plan.js';
 export interface BuildPlanOptions {
   /** Fuse instructions (default true); false gives one general call per instruction. */
   readonly fuse?: boolean;
+  /** Keep diagonal groups diagonal for batching (programs with drift; see src/plan/fuseInstructions.ts). */
+  readonly keepDiagonal?: boolean;
 }
 
 /** The call for one non-diagonal fused group: real1 / real2 when the map is Hermiticity-preserving, else general. */
@@ -70,7 +72,7 @@ export function buildPlan(n: number, instructions: readonly Instruction[], optio
     steps[batch.at] = diagonalStep(batch.members, batch.sources);
     batch = undefined;
   };
-  for (const g of fuseInstructions(n, instructions)) {
+  for (const g of fuseInstructions(n, instructions, { keepDiagonal: options.keepDiagonal === true })) {
     if (g.qubits.length <= DIAGONAL_BIN_MAX_QUBITS && isDiagonalSuperoperator(g.superop)) {
       if (batch !== undefined && g.qubits.every((q) => !touched.has(q)) && diagonalBins([...batch.members, g]) !== undefined) {
         batch.members.push(g);

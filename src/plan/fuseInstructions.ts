@@ -12,9 +12,17 @@
  * groups fold into the next 2-qubit group on their qubit. Groups keep the position of their
  * creation; the result lists them in that order, which is consistent with every qubit's
  * timeline, so applying them in order reproduces the instruction list exactly.
+ *
+ * With `keepDiagonal` (used for programs with drift, whose always-on zz terms put a diagonal
+ * 2-qubit unitary on every coupled pair in every segment), diagonal groups stay diagonal so that
+ * the plan can batch them into single diagonal passes: a non-diagonal instruction does not merge
+ * into a diagonal group on more qubits than its own, and a diagonal instruction on several
+ * qubits does not absorb non-diagonal groups. Both only decline a fusion, so the order on every
+ * qubit is kept as before. (Off by default: it changes how version-1 programs fuse.)
  */
 import type { Instruction } from '../engine/instruction.js';
 import type { CMatrix } from '../linalg/cmatrix.js';
+import { isDiagonalSuperoperator } from './diagonalBatch.js';
 import { composeEmbedded, composeEmbeddedBefore } from './embedSuperoperator.js';
 import { instructionQubits, instructionSuperoperator } from './instructionSuperoperator.js';
 
@@ -30,6 +38,14 @@ interface OpenGroup {
   superop: CMatrix;
   sources: number[];
   alive: boolean;
+  /** Whether superop is diagonal (tracked only with keepDiagonal). */
+  diagonal: boolean;
+}
+
+/** Options of fuseInstructions. */
+export interface FuseOptions {
+  /** Keep diagonal groups diagonal (see above). */
+  readonly keepDiagonal?: boolean;
 }
 
 /** Positions of `sub`'s qubits inside `group` (each must be present). */
@@ -42,27 +58,33 @@ function positionsIn(sub: readonly number[], group: readonly number[]): number[]
 }
 
 /** Fuses `instructions` on n qubits into groups by the rule above, in application order. */
-export function fuseInstructions(n: number, instructions: readonly Instruction[]): FusedGroup[] {
+export function fuseInstructions(n: number, instructions: readonly Instruction[], options: FuseOptions = {}): FusedGroup[] {
+  const keep = options.keepDiagonal === true;
   const last: (OpenGroup | undefined)[] = new Array<OpenGroup | undefined>(n).fill(undefined);
   const groups: OpenGroup[] = [];
   instructions.forEach((ins, i) => {
     const Q = instructionQubits(ins);
     const S = instructionSuperoperator(ins);
+    const diagonal = keep && isDiagonalSuperoperator(S);
     const g0 = last[Q[0]!];
-    if (g0 !== undefined && Q.every((q) => last[q] === g0)) {
+    if (g0 !== undefined && Q.every((q) => last[q] === g0) && !(keep && g0.diagonal && !diagonal && g0.qubits.length > Q.length)) {
       g0.superop = composeEmbedded(S, positionsIn(Q, g0.qubits), g0.qubits.length, g0.superop);
       g0.sources.push(i);
+      g0.diagonal = g0.diagonal && diagonal;
       return;
     }
     const k = Q.length;
     let superop = S;
     const sources: number[] = [];
     const seen = new Set<OpenGroup>();
+    let groupDiagonal = diagonal;
     for (const q of Q) {
       const p = last[q];
       if (p === undefined || seen.has(p)) continue;
       seen.add(p);
+      if (keep && diagonal && k > 1 && !p.diagonal) continue;
       if (p.qubits.every((x) => Q.includes(x) && last[x] === p)) {
+        groupDiagonal = groupDiagonal && p.diagonal;
         // P acts before the instruction and on other qubits than any other absorbed group: S ∘ (⊗ S_P)
         superop = composeEmbeddedBefore(superop, p.superop, positionsIn(p.qubits, Q), k);
         sources.push(...p.sources);
@@ -71,7 +93,7 @@ export function fuseInstructions(n: number, instructions: readonly Instruction[]
     }
     sources.push(i);
     sources.sort((a, b) => a - b);
-    const g: OpenGroup = { qubits: [...Q], superop, sources, alive: true };
+    const g: OpenGroup = { qubits: [...Q], superop, sources, alive: true, diagonal: groupDiagonal };
     for (const q of Q) last[q] = g;
     groups.push(g);
   });

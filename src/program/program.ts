@@ -1,15 +1,17 @@
 import type { Circuit, NoiseOverride, Operation } from '../circuit/circuit.js';
 import type { Instruction } from '../engine/instruction.js';
-import { plainKinds, type NoiseKindsSpec } from '../format/noiseKindsSpec.js';
+import { misplacedZz, plainKinds, type NoiseKindsSpec } from '../format/noiseKindsSpec.js';
 import { ProblemList, type SourcePosition } from '../format/problem.js';
 import { CustomChannelError, ErrorSolveError, gateNoise, idleChannel, type QubitDecay } from '../noise/gateNoise.js';
+import { detuningAngle, zRotation, zzAngle, zzRotation } from '../noise/coherent.js';
 import type { NoiseProfile } from '../noise/profile.js';
-import type { IdleWindow, Schedule } from '../schedule/schedule.js';
+import type { IdleWindow, Schedule, TimedOperation } from '../schedule/schedule.js';
+import { buildTimeline } from '../schedule/timeline.js';
 
 /** Where a noisy instruction comes from: the step (0-based; −1 for idle windows) and what it is. */
 export interface Origin {
   readonly step: number;
-  /** e.g. 'cx', 'thermal during cx', 'idle 120 ns', 'depolarizing', 'reset'. */
+  /** e.g. 'cx', 'thermal during cx', 'idle 120 ns', 'drift 40 ns', 'coherent', 'depolarizing', 'reset'. */
   readonly what: string;
 }
 
@@ -26,10 +28,22 @@ export interface Program {
   readonly ideal: readonly Instruction[];
 }
 
+/** True when the profile has an always-on drift term (a detuning, or a zz strength on a coupled pair). */
+export function hasDrift(profile: NoiseProfile): boolean {
+  return profile.qubits.some((q) => q.detuning !== 0) || (profile.couplings ?? []).some((c) => c.zz !== 0);
+}
+
 /**
- * Builds the instruction lists. Channels on disjoint qubits commute, so emitting every
- * operation in program order, each preceded by the idle windows that end at its start on
- * its own qubits, reproduces the timed evolution exactly.
+ * Builds the instruction lists.
+ *
+ * With drift, the noisy list walks the event timeline (src/schedule/timeline.ts): per event,
+ * the drift of the segment before it (diagonal unitaries), the idle relaxation of that segment,
+ * then the operations starting at the event.
+ *
+ * Without drift the timeline's steps 1 and 2 reduce to each qubit's whole idle windows (relaxation
+ * is a semigroup, and channels on disjoint qubits commute), so the list is emitted in program order,
+ * each operation preceded by the idle windows that end at its start on its own qubits: the same
+ * evolution, and exactly version 1's instruction list (its outputs stay bit-for-bit the same).
  */
 export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: Schedule, problems: ProblemList): Program {
   const n = circuit.register.n;
@@ -62,6 +76,12 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
     thermal: boolean,
     kinds: NoiseKindsSpec,
   ): void => {
+    const zzAt = misplacedZz(kinds, k);
+    if (zzAt !== undefined) {
+      // reachable when a step's noise with zz applies to the parts of a split 2-qubit composite
+      problems.error(zzAt, 'zz-arity', `${label}: 'zz' of 'coherent' is a 2-qubit rotation, and this application acts on ${k} qubit${k === 1 ? '' : 's'}`);
+      return;
+    }
     try {
       const gn = gateNoise({
         k,
@@ -73,7 +93,9 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
       });
       if (gn.warning !== undefined) warnOnce(kinds.error?.at ?? op.at, 'error-below-coherence-limit', `${label}: ${gn.warning}`);
       for (const c of gn.channels) {
-        noisy.push({ op: 'channel', qubits: c.targets.map((t) => qubits[t]!), kraus: c.kraus });
+        const on = c.targets.map((t) => qubits[t]!);
+        if (c.source === 'coherent') noisy.push({ op: 'unitary', qubits: on, matrix: c.kraus[0]! });
+        else noisy.push({ op: 'channel', qubits: on, kraus: c.kraus });
         origins.push({ step: op.step, what: c.source === 'thermal' ? `thermal during ${label}` : c.source });
       }
     } catch (e) {
@@ -87,8 +109,7 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
   const kindsOf = (override: NoiseOverride | undefined, fallback: NoiseKindsSpec): NoiseKindsSpec =>
     override !== undefined ? override.kinds : fallback;
 
-  for (const item of schedule.items) {
-    for (const w of item.idleBefore) emitIdle(w);
+  const emitOperation = (item: TimedOperation): void => {
     const op = item.op;
     const stepName = `step ${op.step + 1}`;
     switch (op.kind) {
@@ -117,7 +138,60 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
       case 'barrier':
         break;
     }
+  };
+
+  if (!hasDrift(profile)) {
+    for (const item of schedule.items) {
+      for (const w of item.idleBefore) emitIdle(w);
+      emitOperation(item);
+    }
+    for (const w of schedule.trailingIdle) emitIdle(w);
+    return { n, noisy, origins, ideal };
   }
-  for (const w of schedule.trailingIdle) emitIdle(w);
+
+  // The event timeline. The drift terms of one segment commute with each other, so their order is
+  // free; it is chosen for fusion (src/plan/fuseInstructions.ts): first the pairs whose qubits were
+  // last touched by the same operation (their rzz merges into its group), last the pairs whose
+  // qubits are next touched by the same operation (their rzz opens the group that operation joins),
+  // the rest in between (diagonal groups that the plan batches).
+  const timeline = buildTimeline(schedule, n);
+  const lastOp: (TimedOperation | undefined)[] = new Array<TimedOperation | undefined>(n).fill(undefined);
+  const upcoming: TimedOperation[][] = Array.from({ length: n }, () => []);
+  for (const ev of timeline.events) for (const i of ev.starts) for (const q of schedule.items[i]!.op.qubits) upcoming[q]!.push(schedule.items[i]!);
+  const nextIndex = new Array<number>(n).fill(0);
+  const pairs = (profile.couplings ?? []).filter((c) => c.zz !== 0);
+  const rank = (c: { a: number; b: number }): number => {
+    if (lastOp[c.a] !== undefined && lastOp[c.a] === lastOp[c.b]) return 0;
+    const na = upcoming[c.a]![nextIndex[c.a]!];
+    return na !== undefined && na === upcoming[c.b]![nextIndex[c.b]!] ? 2 : 1;
+  };
+  for (const ev of timeline.events) {
+    if (ev.segment > 0) {
+      const active = new Set(ev.driftQubits);
+      const what = `drift ${Number(ev.segment.toPrecision(6))} ns`;
+      const live = pairs.filter((c) => active.has(c.a) && active.has(c.b)).map((c) => ({ c, r: rank(c) }));
+      for (const r of [0, 1, 2]) {
+        for (const { c } of live.filter((x) => x.r === r)) {
+          noisy.push({ op: 'unitary', qubits: [c.a, c.b], matrix: zzRotation(zzAngle(c.zz, ev.segment)) });
+          origins.push({ step: -1, what });
+        }
+      }
+      for (const q of ev.driftQubits) {
+        const delta = profile.qubits[q]!.detuning;
+        if (delta === 0) continue;
+        noisy.push({ op: 'unitary', qubits: [q], matrix: zRotation(detuningAngle(delta, ev.segment)) });
+        origins.push({ step: -1, what });
+      }
+      for (const q of ev.idleQubits) emitIdle({ qubit: q, start: ev.time - ev.segment, end: ev.time });
+    }
+    for (const i of ev.starts) {
+      const item = schedule.items[i]!;
+      emitOperation(item);
+      for (const q of item.op.qubits) {
+        lastOp[q] = item;
+        nextIndex[q]!++;
+      }
+    }
+  }
   return { n, noisy, origins, ideal };
 }

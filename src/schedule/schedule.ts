@@ -43,15 +43,43 @@ export interface Schedule {
   readonly measureStart: readonly (number | null)[];
 }
 
+/** Options of scheduleOperations. */
+export interface ScheduleOptions {
+  /**
+   * Simultaneous readout: every measure step starts all its qubits' measurements together, as if
+   * a barrier over them came first (default false: each qubit is measured as soon as it is free).
+   */
+  readonly simultaneousMeasure?: boolean;
+}
+
 /** Schedules `ops` on n qubits; `durationOf` gives each application's duration in ns. */
 export function scheduleOperations(
   ops: readonly Operation[],
   n: number,
   durationOf: (op: Operation) => number,
   policy: 'asap' | 'alap',
+  options: ScheduleOptions = {},
 ): Schedule {
-  const times = policy === 'asap' ? asap(ops, n, durationOf) : alap(ops, n, durationOf);
-  return withIdleWindows(ops, n, times.start, times.end, times.total, policy);
+  const timed = options.simultaneousMeasure === true ? withMeasureBarriers(ops) : ops;
+  const times = policy === 'asap' ? asap(timed, n, durationOf) : alap(timed, n, durationOf);
+  const schedule = withIdleWindows(timed, n, times.start, times.end, times.total, policy);
+  if (timed === ops) return schedule;
+  // the barriers placed for simultaneous readout are not steps of the circuit
+  const own = new Set(ops);
+  return { ...schedule, items: schedule.items.filter((it) => own.has(it.op)) };
+}
+
+/** `ops` with a barrier over each measure step's qubits right before its first measurement. */
+function withMeasureBarriers(ops: readonly Operation[]): Operation[] {
+  const out: Operation[] = [];
+  ops.forEach((op, i) => {
+    if (op.kind === 'measure' && (i === 0 || ops[i - 1]!.kind !== 'measure' || ops[i - 1]!.step !== op.step)) {
+      const qubits = ops.filter((o) => o.kind === 'measure' && o.step === op.step).map((o) => o.qubits[0]!);
+      out.push({ kind: 'barrier', step: op.step, at: op.at, qubits });
+    }
+    out.push(op);
+  });
+  return out;
 }
 
 function asap(ops: readonly Operation[], n: number, durationOf: (op: Operation) => number) {

@@ -5,6 +5,7 @@
 //     fray's whole process (`fray run --json`), fray's engine alone, fray --no-fuse, and the numpy
 //     peer of test/bench/numpyPeer.py (practitioner / hand-fused / hand-folded) when python3 with
 //     numpy is available;
+//  2b. the drift variant circuits/bench/drift10x20.yaml against it (issue 7's 1.3× bound);
 //  3. the same circuit shape on 12 and 13 qubits (time, peak resident memory).
 // Flags: --quick (fewer repetitions; skips --no-fuse and the practitioner numpy run),
 //        --skip-large (skips section 3).
@@ -146,6 +147,31 @@ print('|---|---:|---:|');
 for (const [label, ms] of rows) print(`| ${label} | ${fmtMs(ms)} | ${fmtX(ms / whole)} |`);
 print(numpyNote.trim());
 print();
+
+// ---- 2b. drift ----------------------------------------------------------------------------------
+// Issue 7: the same circuit with a detuning on every qubit and zz on every coupled pair of the line
+// must stay within 1.3× of the circuit without drift (whole process). Interleaved runs, so that load
+// from other work hits both alike.
+{
+  const drift10 = 'circuits/bench/drift10x20.yaml';
+  const base = [];
+  const drift = [];
+  for (let i = 0; i < rounds; i++) {
+    base.push(timeProcess('node', fray(circuit10)).ms);
+    drift.push(timeProcess('node', fray(drift10)).ms);
+  }
+  const mid = (v) => [...v].sort((a, b) => a - b)[v.length >> 1];
+  const driftPlan = planLoaded(loadCircuit(join(root, drift10))).plan;
+  const kinds = {};
+  for (const st of driftPlan.steps) kinds[st.kernel] = (kinds[st.kernel] ?? 0) + 1;
+  print(`## Drift: ${drift10} against ${circuit10} (whole process, median of ${rounds} interleaved runs)`);
+  print();
+  print('| circuit | kernel calls | time | ÷ without drift |');
+  print('|---|---|---:|---:|');
+  print(`| without drift | ${planned.plan.steps.length} | ${fmtMs(mid(base))} | 1.00× |`);
+  print(`| detuning on every qubit, zz on every pair of the line | ${driftPlan.steps.length} (${Object.entries(kinds).map(([k, c]) => `${k} ${c}`).join(', ')}) | ${fmtMs(mid(drift))} | ${fmtX(mid(drift) / mid(base))} |`);
+  print();
+}
 
 // ---- 3. scaling -------------------------------------------------------------------------------
 print('## Same circuit shape on more qubits (whole process `fray run --json`)');

@@ -4,6 +4,7 @@
  */
 import { add, complex, ctranspose, index, kron, matrix, multiply, range, subset, type Complex, type Matrix } from 'mathjs';
 import type { CMatrix } from '../../src/linalg/cmatrix.js';
+import type { Instruction } from '../../src/engine/instruction.js';
 import type { DensityMatrix, StateVector } from '../../src/engine/layout.js';
 import { toMath } from '../helpers/mathjs.js';
 export { toMath } from '../helpers/mathjs.js';
@@ -108,4 +109,18 @@ export function denseReset(n: number, q: number, rho: Matrix): Matrix {
   ]);
   const out = kron(ket0bra0, reduced);
   return multiply(multiply(ctranspose(p), out), p) as Matrix;
+}
+
+/** Dense run of an instruction list from |0…0⟩: ρ → U ρ U†, Σ K ρ K†, reset, all with mathjs. */
+export function denseProgramRun(n: number, program: readonly Instruction[]): Matrix {
+  const d = 1 << n;
+  let rho = matrix(Array.from({ length: d }, (_, r) => Array.from({ length: d }, (_, c) => complex(r === 0 && c === 0 ? 1 : 0, 0))));
+  for (const ins of program) {
+    if (ins.op === 'unitary') {
+      const u = embed(n, ins.qubits, ins.matrix);
+      rho = multiply(multiply(u, rho), ctranspose(u)) as Matrix;
+    } else if (ins.op === 'channel') rho = denseChannel(n, ins.qubits, ins.kraus, rho);
+    else rho = denseReset(n, ins.qubit, rho);
+  }
+  return rho;
 }

@@ -87,6 +87,17 @@ describe('JSON Schemas of the file formats', () => {
     }
   });
 
+  it('every test fixture file fray accepts validates (device files against the profile schema)', () => {
+    const files = yamlFiles('test').filter((f) => f.includes('fixtures'));
+    expect(files.length).toBeGreaterThan(0);
+    for (const f of files) {
+      const text = readFileSync(f, 'utf8');
+      const kind: SchemaKind = f.endsWith('-device.yaml') ? 'profile' : 'circuit';
+      if (kind === 'circuit') loadCircuit(f);
+      expect(valid(kind, text), `${f}: ${JSON.stringify(validators[kind].errors)}`).toBe(true);
+    }
+  });
+
   it('every generated contract circuit (and device file) that fray accepts validates (seeded)', () => {
     let accepted = 0;
     for (let seed = 1; seed <= 150; seed++) {
@@ -129,6 +140,10 @@ describe('JSON Schemas of the file formats', () => {
     { name: 'noise on a measurement', kind: 'profile', text: 'gates:\n  measure: { duration: 1us, bit_flip: 0.1 }\n', code: 'bad-measure-entry' },
     { name: 'thermal on a reset', kind: 'profile', text: 'gates:\n  reset: { thermal: false }\n', code: 'bad-reset-entry' },
     { name: 'unknown pauli key', kind: 'profile', text: 'gates:\n  all: { pauli: { x: 0.1, w: 0.1 } }\n', code: 'unknown-key' },
+    { name: 'detuning without a unit', kind: 'profile', text: 'qubits:\n  all: { detuning: 20 }\n', code: 'bad-frequency' },
+    { name: 'unknown key in a coupling', kind: 'profile', text: 'couplings:\n  "0 1": { xx: 80kHz }\n', code: 'unknown-key' },
+    { name: 'unknown coherent key', kind: 'profile', text: 'gates:\n  all: { coherent: { w: 0.01 } }\n', code: 'unknown-key' },
+    { name: 'coherent on a reset', kind: 'profile', text: 'gates:\n  reset: { coherent: { x: 0.01 } }\n', code: 'coherent-on-reset' },
     { name: 'channel file without channels', kind: 'channels', text: 'name: none here\n', code: 'missing-key' },
   ];
 

@@ -45,6 +45,14 @@ describe('fray run --html', () => {
     for (const id of ['run', 'fidelity', 'timeline', 'outcomes']) expect(html).toContain(`<section id="${id}">`);
   });
 
+  it('names the coupling map and the drift of a version-2 device in the header, as the text report does', async () => {
+    const { html } = await report('circuits/zz-spectator-a.yaml');
+    const text = (await fray('run', 'circuits/zz-spectator-a.yaml')).out;
+    const couplings = /couplings (.*)\n/.exec(text)![1]!;
+    expect(html).toContain(`<dt>couplings</dt><dd>${couplings}</dd>`);
+    expect(html).toContain('<dt>drift</dt><dd>detuning on 0 qubits, zz on 3 pairs; the ideal run has none (not in the idle shading, which is relaxation only)</dd>');
+  });
+
   it('lists the costliest idle windows with their 1 − F_avg', async () => {
     const { html } = await report('circuits/ghz5.yaml');
     // qubit 3 waits longest before its cx (ghz5 builds the chain from qubit 0)

@@ -1,4 +1,6 @@
+import * as math from 'mathjs';
 import { describe, it, expect } from 'vitest';
+import { fromMath } from '../helpers/mathjs.js';
 import { type CMatrix, identity, krausResidual, maxAbsDiff } from '../../src/linalg/cmatrix.js';
 import { type KrausChannel, amplitudeDamping, depolarizing, thermalRelaxation } from '../../src/noise/channels.js';
 import { composeKraus, entanglementFidelity, averageGateFidelity, tensorKraus } from '../../src/noise/fidelity.js';
@@ -265,5 +267,42 @@ describe('idle relaxation and the coherence limit', () => {
   it('rejects a decay list of the wrong length', () => {
     expect(() => coherenceLimitedInfidelity(2, 100, [IDEAL])).toThrow(RangeError);
     expect(() => gateNoise(input({ k: 2, thermal: true, duration: 10, decay: [IDEAL] }))).toThrow(RangeError);
+  });
+});
+
+describe('gateNoise: coherent errors', () => {
+  it('the coherent rotation comes first, right after U, as one unitary per qubit, then rzz on a pair', () => {
+    const res = gateNoise(input({ k: 2, duration: 100, thermal: true, decay: [{ t1: 3e4, t2: 2e4, excited: 0 }, { t1: 3e4, t2: 2e4, excited: 0 }], kinds: { coherent: { x: 0.1, y: 0, z: 0.02, zz: 0.05 }, bit_flip: 0.01 } }));
+    expect(res.channels.map((c) => c.source)).toEqual(['coherent', 'coherent', 'coherent', 'thermal', 'thermal', 'bit_flip', 'bit_flip']);
+    expect(res.channels.map((c) => c.targets)).toEqual([[0], [1], [0, 1], [0], [1], [0], [1]]);
+    // exp(−i(x·X + z·Z)/2) (Nielsen & Chuang Exercise 4.6) equals the dense mathjs matrix exponential
+    const u = res.channels[0]!.kraus[0]!;
+    const gen = math.multiply(math.complex(0, -0.5), math.add(math.multiply(0.1, math.matrix([[0, 1], [1, 0]])), math.multiply(0.02, math.matrix([[1, 0], [0, -1]])))) as math.Matrix;
+    expect(maxAbsDiff(u, fromMath(math.expm(gen)))).toBeLessThan(PHYS_TOL);
+  });
+
+  it('error: r with a coherent part reaches F_avg = 1 − r over an exact 2-design (k = 1: six states; k = 2: 60 stabilizer states; Nielsen 2002)', () => {
+    const decay = { t1: 40_000, t2: 30_000, excited: 0.01 };
+    for (const [k, u, design] of [
+      [1, HADAMARD, stabilizerStates(1)],
+      [2, CX, stabilizerStates(2)],
+    ] as const) {
+      for (const r of [0.01, 0.04]) {
+        const coherent = { x: 0.05, y: -0.03, z: 0.02, zz: k === 2 ? 0.08 : 0 };
+        const res = gateNoise(input({ k, duration: 60, thermal: true, decay: Array.from({ length: k }, () => decay), kinds: { error: r, coherent } }));
+        expect(res.warning).toBeUndefined();
+        expect(res.channels[0]!.source).toBe('coherent');
+        expect(res.channels.at(-1)!.source).toBe('error');
+        const fAvg = designAverageFidelity(design, u, (rho) => applyPlaced(res.channels, k, rho));
+        expect(Math.abs(1 - fAvg - r)).toBeLessThan(PHYS_TOL);
+      }
+    }
+  });
+
+  it('a coherent error alone above r gives the warning and no depolarizing', () => {
+    const res = gateNoise(input({ k: 1, kinds: { error: 1e-4, coherent: { x: 0.2, y: 0, z: 0, zz: 0 } } }));
+    expect(res.solvedDepolarizing).toBe(0);
+    // r of rx(ε): 2·sin²(ε/2)/3 (F_e = cos²(ε/2), F_avg = (2F_e + 1)/3), derived
+    expect(res.warning).toBe(`calibrated error 0.0001 is below what the listed noise already causes (${String(Number(((2 * Math.sin(0.1) ** 2) / 3).toPrecision(3)))}); no depolarizing added`);
   });
 });

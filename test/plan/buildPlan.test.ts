@@ -38,6 +38,9 @@ describe('fused plan against the reference kernels (random circuits, fixed seeds
         const one = runCompiled(compilePlan(fused));
         const two = runCompiled(compilePlan(fused), pool, 1);
         const unfused = runCompiled(compilePlan(buildPlan(n, program, { fuse: false })), pool, 1);
+        const keep = buildPlan(n, program, { keepDiagonal: true });
+        expect(maxDiff(runCompiled(compilePlan(keep)).data, expected.data)).toBeLessThan(PLAN_AGREEMENT);
+        expect(keep.steps.flatMap((s) => s.sources).sort((a, b) => a - b)).toEqual(program.map((_, i) => i));
         expect(maxDiff(one.data, expected.data)).toBeLessThan(PLAN_AGREEMENT);
         expect(maxDiff(two.data, expected.data)).toBeLessThan(PLAN_AGREEMENT);
         expect(maxDiff(unfused.data, expected.data)).toBeLessThan(PLAN_AGREEMENT);
@@ -136,6 +139,21 @@ describe('fusion structure', () => {
       ['diagonal', [3]],
     ]);
     expect(maxDiff(runCompiled(compilePlan(plan)).data, runNoisy(5, program).data)).toBeLessThan(PLAN_AGREEMENT);
+  });
+
+  it('keepDiagonal: a 1-qubit gate does not turn a diagonal pair into a real2 call; the pairs batch into one pass', () => {
+    // rzz-like phases on (0,1) and (2,3), then an x-type gate on qubit 1: by default it merges into the
+    // (0,1) group (real2); with keepDiagonal the pair stays diagonal and the gate is its own 1-qubit call.
+    const x = { rows: 2, cols: 2, data: Float64Array.from([0, 0, 1, 0, 1, 0, 0, 0]) };
+    const program: Instruction[] = [
+      { op: 'unitary', qubits: [0, 1], matrix: cphase(0.3) },
+      { op: 'unitary', qubits: [2, 3], matrix: cphase(0.7) },
+      { op: 'unitary', qubits: [1], matrix: x },
+    ];
+    expect(buildPlan(4, program).steps.map((s) => s.kernel)).toEqual(['real2', 'diagonal']);
+    const keep = buildPlan(4, program, { keepDiagonal: true });
+    expect(keep.steps.map((s) => s.kernel)).toEqual(['diagonal', 'real1tp']);
+    expect(maxDiff(runCompiled(compilePlan(keep)).data, runNoisy(4, program, referenceKernels).data)).toBeLessThan(PLAN_AGREEMENT);
   });
 
   it('a lone 1-qubit CPTP group uses the trace-preserving kernel, a trace-decreasing one the general real form', () => {

@@ -4,6 +4,7 @@
  * src/format/read.ts (or its sibling) and names it.
  */
 import { DURATION_PATTERN } from '../duration.js';
+import { FREQUENCY_PATTERN } from '../frequency.js';
 import type { JsonSchema } from './keyedObject.js';
 
 /** A reference to a schema under `$defs` of the same document. */
@@ -16,6 +17,13 @@ export const DURATION: JsonSchema = {
   type: 'string',
   pattern: DURATION_PATTERN,
   description: 'a duration with a unit: ns, us (µs), ms or s, e.g. 35ns or 1.2us',
+};
+
+/** A frequency with a unit, as readFrequency takes it (either sign; a bare number is refused). */
+export const FREQUENCY: JsonSchema = {
+  type: 'string',
+  pattern: FREQUENCY_PATTERN,
+  description: 'a frequency with a unit: Hz, kHz, MHz or GHz, e.g. 80kHz or -1.5MHz',
 };
 
 /** A probability in [0, 1], as readProbability takes it (a plain number). */
