@@ -7,6 +7,7 @@ import { deviceDescription, deviceFacts } from '../api/describe.js';
 import type { Simulation } from '../api/simulate.js';
 import { operationName } from '../circuit/operationName.js';
 import { formatDuration } from '../format/duration.js';
+import { formatFrequency } from '../format/frequency.js';
 import { qubitName } from '../format/register.js';
 import { comparisonBarsSpec, renderSvg, timelineSpec, type ComparisonBar, type Series } from '../plots/index.js';
 import { HEADLINE_FIGURES } from '../results/headlineFigures.js';
@@ -66,7 +67,7 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
       `M marks a measurement, R a reset, N a standalone noise step; dashed ticks are barriers and the dashed line is the end of the circuit. ${idleNote} ` +
       `Hover a box or a band for its exact figures.`,
     body:
-      figure(await renderSvg(timelineSpec(tl)), `${r.schedule.toUpperCase()} schedule, ${formatDuration(r.duration_ns)} in total.`) +
+      figure(await renderSvg(timelineSpec(tl)), `${r.schedule.toUpperCase()} schedule, ${formatDuration(r.duration_ns)} in total.${zzCaption(sim)}`) +
       (worst.length === 0
         ? `<p class="note">No qubit waits: there are no idle windows.</p>`
         : table(
@@ -187,6 +188,15 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
     [header, ...sections],
     `Written by fray ${opts.version} from ${r.file}. One self-contained page: no scripts, nothing loaded from the network.`,
   );
+}
+
+/** The always-on zz of coupled pairs, for the timeline's caption ('' when there is none); δ in lane names is a qubit's detuning. */
+function zzCaption(sim: Simulation): string {
+  const reg = sim.circuit.register;
+  const pairs = (sim.profile.couplings ?? []).filter((c) => c.zz !== 0);
+  const detuned = sim.profile.qubits.some((q) => q.detuning !== 0);
+  const zz = pairs.length === 0 ? '' : ` Always-on zz: ${pairs.map((c) => `${qubitName(c.a, reg)}–${qubitName(c.b, reg)} ${formatFrequency(c.zz)}`).join(', ')}.`;
+  return zz + (detuned ? ' δ in a lane name is the qubit\'s detuning.' : '');
 }
 
 /** Values within 5e-7 of zero are shown as 0 (rounding noise of the simulation). */

@@ -11,6 +11,7 @@ import type { Simulation } from '../api/simulate.js';
 import type { Operation } from '../circuit/circuit.js';
 import { operationName } from '../circuit/operationName.js';
 import { formatDuration } from '../format/duration.js';
+import { formatFrequency } from '../format/frequency.js';
 import { plainKinds } from '../format/noiseKindsSpec.js';
 import { qubitName } from '../format/register.js';
 import { coherenceLimitedInfidelity } from '../noise/gateNoise.js';
@@ -77,7 +78,11 @@ export function timelineData(sim: Simulation): TimelineData {
       };
     });
   return {
-    lanes: Array.from({ length: reg.n }, (_, q) => name(q)),
+    // a detuned qubit drifts about Z all the time: its lane says by how much
+    lanes: Array.from({ length: reg.n }, (_, q) => {
+      const detuning = sim.profile.qubits[q]!.detuning;
+      return detuning !== 0 ? `${name(q)} (δ ${formatFrequency(detuning)})` : name(q);
+    }),
     boxes,
     idle,
     links,

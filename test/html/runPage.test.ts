@@ -53,6 +53,13 @@ describe('fray run --html', () => {
     expect(html).toContain('<dt>drift</dt><dd>detuning on 0 qubits, zz on 3 pairs; the ideal run has none (not in the idle shading, which is relaxation only)</dd>');
   });
 
+  it('draws drift: a detuned qubit’s lane names its detuning, the caption lists the always-on zz', async () => {
+    const detuned = (await report('circuits/detuned-ramsey-echo.yaml')).html;
+    expect(detuned).toMatch(/>ramsey \(δ 45 kHz\)<\/text>/);
+    const zz = (await report('circuits/zz-spectator-a.yaml')).html;
+    expect(zz).toContain('Always-on zz: 0–1 30 kHz, 1–2 260 kHz, 2–3 35 kHz.');
+  });
+
   it('lists the costliest idle windows with their 1 − F_avg', async () => {
     const { html } = await report('circuits/ghz5.yaml');
     // qubit 3 waits longest before its cx (ghz5 builds the chain from qubit 0)
