@@ -2,14 +2,19 @@ import type { Circuit, Operation } from '../circuit/circuit.js';
 import { fastKernels } from '../engine/fastKernels.js';
 import { referenceKernels, type Kernels } from '../engine/kernels.js';
 import type { DensityMatrix } from '../engine/layout.js';
-import { checkMemory, defaultMemoryLimit, MemoryLimitError } from '../engine/memory.js';
+import { checkMemory, checkRecordMemory, defaultMemoryLimit, MemoryLimitError } from '../engine/memory.js';
 import { MAX_IDEAL_BRANCHES, runIdeal, runNoisy } from '../engine/run.js';
 import { runCompiled, THREADS_MIN_QUBITS } from '../engine/runCompiled.js';
+import { fastBranchEngine, referenceBranchEngine, runBranches, runIdealBranches, segments, type BranchEnsemble, type IdealEnsemble } from '../engine/branches.js';
+import { maxBranches } from '../engine/recordProgram.js';
+import { densityMatrixBytes, stateVectorBytes } from '../engine/layout.js';
+import type { ThreadPool } from '../engine/threadPool.js';
+import { branchWeights, computeRecordFigures } from '../results/recordFigures.js';
 import { defaultThreads, sharedThreadPool } from '../engine/threadPool.js';
 import { WARM_MIN_QUBITS, warmKernels } from '../engine/warmKernels.js';
 import { buildPlan } from '../plan/buildPlan.js';
 import { compilePlan } from '../plan/compilePlan.js';
-import type { Plan } from '../plan/plan.js';
+import type { Plan, PlannedSegment } from '../plan/plan.js';
 import { InputError, ProblemList, type Problem } from '../format/problem.js';
 import type { NoiseProfile } from '../noise/profile.js';
 import { buildProgram, hasDrift, type Program } from '../program/program.js';
@@ -21,6 +26,7 @@ import { warnOffMap } from '../noise/couplingMap.js';
 import { warnEntryFallback } from '../noise/entryFallback.js';
 import { loadCircuit, type LoadedCircuit, type LoadOptions } from './loadCircuit.js';
 import { pauliStringProblem } from '../circuit/pauliString.js';
+import { explainCommandLine } from '../format/overrides.js';
 
 /** Options of one simulation run. */
 export interface SimulateOptions {
@@ -54,6 +60,12 @@ export interface RunResult {
   readonly labels?: readonly string[];
   readonly measured: readonly number[];
   readonly measured_labels?: readonly string[];
+  /** Record mode: the record's bit names in order (character i of a probabilities key is bit i). */
+  readonly bits?: readonly string[];
+  /** Device qubit of each circuit qubit, when the run was placed with a layout. */
+  readonly layout?: readonly number[];
+  /** The uniform noise scale C, when not 1. */
+  readonly noise_scale?: number;
   readonly schedule: 'asap' | 'alap';
   readonly duration_ns: number;
   readonly probabilities: Figures['probabilities'];
@@ -76,8 +88,12 @@ export interface Simulation {
   readonly program: Program;
   /** The plan the fast engine ran (absent on the reference engine). */
   readonly plan?: Plan;
+  /** The final noisy state (record mode: Σ_r ρ_r, the record discarded). */
   readonly rho: DensityMatrix;
+  /** The final ideal state (record mode: Σ_r σ_r). */
   readonly ideal: IdealState;
+  /** Record mode: the branches of the run with every noise source (readout error included) and of the ideal run. */
+  readonly branches?: { readonly noisy: BranchEnsemble; readonly ideal: IdealEnsemble };
   readonly result: RunResult;
   readonly warnings: readonly Problem[];
 }
@@ -100,11 +116,13 @@ export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedu
   };
   return scheduleOperations(deviceOperations(circuit.operations, profile), circuit.register.n, durationOf, profile.schedule, {
     simultaneousMeasure: profile.simultaneousMeasure,
+    latency: profile.measureLatency,
   });
 }
 
-/** Measured qubits, ascending: those named by `measure` steps, or all qubits when there is none. */
+/** Measured qubits, ascending: those named by `measure` steps, or all qubits when there is none; none in record mode. */
 export function measuredQubits(circuit: Circuit): number[] {
+  if (circuit.bits !== null) return [];
   const qs = new Set<number>();
   for (const op of circuit.operations) if (op.kind === 'measure') qs.add(op.qubits[0]!);
   if (qs.size === 0) return Array.from({ length: circuit.register.n }, (_, i) => i);
@@ -115,7 +133,12 @@ export function measuredQubits(circuit: Circuit): number[] {
 export interface PlannedRun {
   readonly schedule: Schedule;
   readonly program: Program;
+  /** The plan of the noisy run (record mode: of its instructions outside any segment, i.e. empty; see `segments`). */
   readonly plan: Plan;
+  /** Record mode: the noisy run's segments in order, each run of instructions with its own plan. */
+  readonly segments?: readonly PlannedSegment[];
+  /** Record mode: the record's bit names in order. */
+  readonly bits?: readonly string[];
   readonly problems: ProblemList;
 }
 
@@ -150,6 +173,14 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
   warnEntryFallback(ops, circuit, profile, problems);
   warnOffMap(schedule, profile.couplings, circuit.register, problems);
   const program = buildProgram(circuit, profile, schedule, problems);
+  // Problems at positions on the command line name the --set they came from.
+  if (loaded.overrideTexts !== undefined) problems.items.splice(0, problems.items.length, ...explainCommandLine(problems.items, loaded.overrideTexts));
+  if (loaded.noiseScale !== undefined) {
+    // An `error:` the scale pushed out of reach is the scale's doing: say so.
+    problems.items.forEach((p, i) => {
+      if (p.code === 'error-unreachable') problems.items[i] = { ...p, message: `--noise-scale ${loaded.noiseScale}: ${p.message}` };
+    });
+  }
   problems.throwIfErrors();
   return { schedule, program, problems };
 }
@@ -157,8 +188,15 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
 /** The plan of kernel calls the fast engine would run for a loaded circuit (nothing is simulated). Throws InputError on bad input. */
 export function planLoaded(loaded: LoadedCircuit, options: SimulateOptions = {}): PlannedRun {
   const { schedule, program, problems } = prepare(loaded, options);
-  const plan = buildPlan(program.n, program.noisy, { fuse: options.fuse !== false, keepDiagonal: hasDrift(loaded.profile) });
-  return { schedule, program, plan, problems };
+  const planOptions = { fuse: options.fuse !== false, keepDiagonal: hasDrift(loaded.profile) };
+  const plan = buildPlan(program.n, program.noisy, planOptions);
+  if (program.record === null) return { schedule, program, plan, problems };
+  const planned = segments(program.record.noisy).map((seg): PlannedSegment =>
+    seg.kind === 'measure'
+      ? { kind: 'measure', qubit: seg.qubit, bit: seg.bit }
+      : { kind: 'apply', ...(seg.when !== undefined ? { when: seg.when } : {}), plan: buildPlan(program.n, seg.instructions, planOptions), origins: seg.origins },
+  );
+  return { schedule, program, plan, segments: planned, bits: loaded.circuit.bits ?? [], problems };
 }
 
 /** Reads a circuit file and returns its plan (`fray run --plan`). Throws InputError on bad input. */
@@ -178,15 +216,8 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
   const pool = fast && threads > 1 && n >= THREADS_MIN_QUBITS ? sharedThreadPool(threads) : undefined;
   if (fast && n >= WARM_MIN_QUBITS) warmKernels();
   const { schedule, program, problems } = prepare(loaded, options);
-  try {
-    checkMemory(n, idealStaysOnVectors(program), options.maxMemoryBytes ?? defaultMemoryLimit());
-  } catch (e) {
-    if (e instanceof MemoryLimitError) {
-      problems.error(circuit.qubitsAt, 'memory-limit', e.message);
-      problems.throwIfErrors();
-    }
-    throw e;
-  }
+  if (program.record !== null) return simulateRecord(loaded, options, schedule, program, problems, fast ? pool : undefined, fast);
+  refuseOverMemory(circuit, problems, () => checkMemory(n, idealStaysOnVectors(program), options.maxMemoryBytes ?? defaultMemoryLimit()));
   let rho: DensityMatrix;
   let plan: Plan | undefined;
   let ideal: IdealState;
@@ -208,15 +239,68 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     observe,
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED } : {}),
   });
+  const result = runResult(loaded, schedule, figures, measured, null, options, problems);
+  return { circuit, profile, schedule, program, ...(plan !== undefined ? { plan } : {}), rho, ideal, result, warnings: problems.warnings };
+}
+
+/** Record mode (format version 2, part B): the branch ensembles of the noisy, readout-free and ideal runs, and their figures. */
+function simulateRecord(
+  loaded: LoadedCircuit,
+  options: SimulateOptions,
+  schedule: Schedule,
+  program: Program,
+  problems: ProblemList,
+  pool: ThreadPool | undefined,
+  fast: boolean,
+): Simulation {
+  const { circuit, profile } = loaded;
+  const n = circuit.register.n;
+  const record = program.record!;
+  const bits = circuit.bits!;
+  const branchCount = maxBranches(record.noisy);
+  // an ideal record keeps at most MAX_IDEAL_BRANCHES state vectors before it becomes a density matrix
+  const idealPerBranch = Math.min(densityMatrixBytes(n), MAX_IDEAL_BRANCHES * stateVectorBytes(n));
+  refuseOverMemory(circuit, problems, () => checkRecordMemory(n, branchCount, idealPerBranch, options.maxMemoryBytes ?? defaultMemoryLimit()));
+  const engine = fast ? fastBranchEngine({ fuse: options.fuse !== false, keepDiagonal: hasDrift(profile) }, pool) : referenceBranchEngine(options.kernels ?? referenceKernels);
+  const hasReadout = record.noisy.some((ins) => ins.kind === 'measure' && (ins.zeroAsOne !== 0 || ins.oneAsZero !== 0));
+  // the readout-free run only feeds probabilities.noisy: keep its weights, free its branches
+  const withoutReadout = hasReadout ? branchWeights(runBranches(n, bits.length, record.noisy, engine, { readout: false })) : undefined;
+  const noisy = runBranches(n, bits.length, record.noisy, engine);
+  const idealBranches = runIdealBranches(n, bits.length, record.ideal, fast ? fastKernels : (options.kernels ?? referenceKernels));
+  const observe = [...new Set([...circuit.observe.map((o) => o.value), ...(options.observe ?? [])])];
+  const { figures, rho, ideal } = computeRecordFigures(noisy, withoutReadout ?? branchWeights(noisy), idealBranches, {
+    n,
+    bits: bits.length,
+    observe,
+    ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED } : {}),
+  });
+  const result = runResult(loaded, schedule, figures, [], bits, options, problems);
+  return { circuit, profile, schedule, program, rho, ideal, branches: { noisy, ideal: idealBranches }, result, warnings: problems.warnings };
+}
+
+/** The JSON object of a run; `bits` (record mode) adds the record's bit names after `measured`. */
+function runResult(
+  loaded: LoadedCircuit,
+  schedule: Schedule,
+  figures: Figures,
+  measured: readonly number[],
+  bits: readonly string[] | null,
+  options: SimulateOptions,
+  problems: ProblemList,
+): RunResult {
+  const { circuit, profile } = loaded;
   const labels = circuit.register.labels;
-  const result: RunResult = {
+  return {
     name: circuit.name,
     file: circuit.file,
     device: profile.name,
-    qubits: n,
+    qubits: circuit.register.n,
     ...(labels !== null ? { labels } : {}),
     measured,
     ...(labels !== null ? { measured_labels: measured.map((q) => labels[q]!) } : {}),
+    ...(bits !== null ? { bits } : {}),
+    ...(loaded.layout !== undefined ? { layout: loaded.layout } : {}),
+    ...(loaded.noiseScale !== undefined ? { noise_scale: loaded.noiseScale } : {}),
     schedule: schedule.policy,
     duration_ns: schedule.duration,
     probabilities: figures.probabilities,
@@ -228,7 +312,19 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED, counts: figures.counts } : {}),
     warnings: problems.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`),
   };
-  return { circuit, profile, schedule, program, ...(plan !== undefined ? { plan } : {}), rho, ideal, result, warnings: problems.warnings };
+}
+
+/** Runs `check` (a memory estimate); a MemoryLimitError becomes an input error located at the register. */
+function refuseOverMemory(circuit: Circuit, problems: ProblemList, check: () => void): void {
+  try {
+    check();
+  } catch (e) {
+    if (e instanceof MemoryLimitError) {
+      problems.error(circuit.qubitsAt, 'memory-limit', e.message);
+      problems.throwIfErrors();
+    }
+    throw e;
+  }
 }
 
 /** Reads, validates and runs a circuit file (the one easy call). Throws InputError on bad input. */

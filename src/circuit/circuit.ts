@@ -34,6 +34,23 @@ export interface Circuit {
   readonly stepsAt: SourcePosition;
   /** Where the `qubits:` value is (for problems about the register's size). */
   readonly qubitsAt: SourcePosition;
+  /**
+   * The classical record's bit names in record order (character i of a record key is bit i),
+   * or null for a circuit without `into` (version 1: every measurement terminal).
+   */
+  readonly bits: readonly string[] | null;
+}
+
+/** One term of a condition: the record's bit `bit` (index into Circuit.bits) must read `value`. */
+export interface ConditionTerm {
+  readonly bit: number;
+  readonly value: 0 | 1;
+}
+
+/** An `if:` modifier: the application acts only in branches where every term holds. */
+export interface Condition {
+  readonly terms: readonly ConditionTerm[];
+  readonly at: SourcePosition;
 }
 
 /** Qubit count and optional labels (labels[i] names qubit i). */
@@ -70,6 +87,7 @@ export interface GateOperation extends OperationBase {
   readonly qubits: readonly number[];
   readonly unitary: CMatrix;
   readonly noise?: NoiseOverride;
+  readonly condition?: Condition;
   /** Composite gates: the parts in order, on circuit qubits (used when the profile says `split: true`). */
   readonly parts?: readonly GatePart[];
 }
@@ -95,10 +113,14 @@ export interface BarrierOperation extends OperationBase {
   readonly qubits: readonly number[];
 }
 
-/** The (terminal) measurement of one qubit in the computational basis. */
+/**
+ * The measurement of one qubit in the computational basis: terminal in version 1 (`bit`
+ * absent); in record mode a mid-circuit measurement whose outcome goes to record bit `bit`.
+ */
 export interface MeasureOperation extends OperationBase {
   readonly kind: 'measure';
   readonly qubits: readonly number[];
+  readonly bit?: number;
 }
 
 /** ρ → |0⟩⟨0|_q ⊗ Tr_q ρ on one qubit, then the reset entry's noise kinds. */
@@ -106,6 +128,7 @@ export interface ResetOperation extends OperationBase {
   readonly kind: 'reset';
   readonly qubits: readonly number[];
   readonly noise?: NoiseOverride;
+  readonly condition?: Condition;
 }
 
 /** A standalone noise step on `qubits` (1-qubit kinds on each, depolarizing/channel on all). */
@@ -113,6 +136,7 @@ export interface ChannelOperation extends OperationBase {
   readonly kind: 'channel';
   readonly qubits: readonly number[];
   readonly noise: NoiseOverride;
+  readonly condition?: Condition;
 }
 
 /** One application in program order. */

@@ -11,7 +11,7 @@ import { fileStart, InputError, ProblemList } from '../format/problem.js';
 import { asMap, checkKeys, entryOf, offsetInto } from '../format/read.js';
 import { describe, parseYamlTree, type YNode } from '../format/yamlTree.js';
 import { buildChannelReport, channelReportJson, renderChannelReport, REPORT_DIGITS, ZERO_BELOW } from './channelReport.js';
-import { toJson } from './json.js';
+import { toJson } from '../results/json.js';
 import { UsageError, type CliIO } from './main.js';
 import { makeStyle, wantColor } from './style.js';
 

@@ -5,9 +5,10 @@ import { channelCommand, type ChannelCommandOptions } from './channelCommand.js'
 import { schemaCommand } from './schemaCommand.js';
 import { makeStyle, wantColor } from './style.js';
 import { renderProblems } from './problems.js';
+import { addTargetOptions, collect, collectLayout, parseLayout, parseNoiseScale, parsePositiveInt } from './options.js';
 
-/** Exit statuses of the fray command (the contract's): success, internal error, input error. */
-export const EXIT = { ok: 0, internal: 1, input: 2 } as const;
+/** Exit statuses of the fray command: success, internal error, input error, a failed `--require`. */
+export const EXIT = { ok: 0, internal: 1, input: 2, requirement: 3 } as const;
 
 /** Thrown by option parsers for a bad command-line value (reported with exit status 2). */
 export class UsageError extends Error {}
@@ -23,10 +24,11 @@ export const VERSION = '0.1.0';
 
 /** Runs the fray command line with `argv` (without node and script) and returns the exit status. */
 export async function main(argv: readonly string[], io: CliIO = { stdout: process.stdout, stderr: process.stderr }): Promise<number> {
-  const program = buildProgram(io);
+  let status: number = EXIT.ok;
+  const program = buildProgram(io, (code) => (status = code));
   try {
     await program.parseAsync([...argv], { from: 'user' });
-    return EXIT.ok;
+    return status;
   } catch (e) {
     return reportFailure(e, io);
   }
@@ -54,7 +56,7 @@ function reportFailure(e: unknown, io: CliIO): number {
   return EXIT.internal;
 }
 
-function buildProgram(io: CliIO): Command {
+function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
   const program = new Command();
   program
     .name('fray')
@@ -77,7 +79,12 @@ function buildProgram(io: CliIO): Command {
         '  fray run circuits/ghz5.yaml                 report for a circuit and its device\n' +
         '  fray run circuits/ghz5.yaml --json          the same as one JSON object\n' +
         '  fray run --help                             every option of run\n' +
-        '\nExit status: 0 success, 2 input error (FILE:LINE:COL: message), 1 internal error.',
+        "  fray compare circuits/variants/*.yaml --require 'state>=0.95'   rank variants, gate CI\n" +
+        '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..2:9 --plot s.svg      a figure against a knob\n' +
+        "  fray threshold circuits/ghz5.yaml --target 'state>=0.9' --vary gates.cx.error=0.0001..0.05\n" +
+        '  fray budget circuits/ghz5.yaml                 where the infidelity comes from\n' +
+        '\nExit status: 0 success, 2 input error (FILE:LINE:COL: message), 3 a requirement not met\n' +
+        '(compare --require; threshold: the target met nowhere), 1 internal error.',
     );
 
   const run = program
@@ -86,13 +93,15 @@ function buildProgram(io: CliIO): Command {
     .argument('<file>', 'circuit file (YAML)')
     .option('--json', 'print one JSON object instead of the report')
     .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
-    .addOption(new Option('--set <name=value...>', 'override a circuit parameter (repeatable), e.g. --set theta=0.4 --set "phi=pi/8"'))
+    .addOption(new Option('--set <key=value...>', 'override a parameter or a profile field (repeatable), e.g. --set theta=0.4 --set qubits.all.t1=50us --set gates.cx.error=none'))
+    .option('--noise-scale <c>', 'multiply every noise strength by C ≥ 0 (rates 1/T1 and 1/T2, probabilities, error, readout)', parseNoiseScale)
+    .option('--layout <p0,p1,...>', 'place circuit qubit i on device qubit P_i: the device profile is read at those qubits', parseLayout)
     .option('--shots <n>', 'also sample this many shots from the measured distribution', parseShots)
     .option('--seed <s>', 'seed of the shot sampler (default 1); the same seed gives the same counts everywhere', parseSeed)
     .addOption(new Option('--observe <pauli...>', 'report ⟨P⟩ for Pauli strings, qubit 0 leftmost (repeatable or comma-separated), e.g. --observe ZZI,XXX'))
     .option('--top <k>', 'how many outcomes the report lists (default 8)', parseTop, 8)
-    .option('--state', 'print per-qubit Bloch vectors (and ρ for up to 3 qubits)')
-    .option('--schedule', 'print the time schedule, idle windows and drift (detuning, zz) per qubit and pair')
+    .option('--state', 'print per-qubit Bloch vectors (and ρ for up to 3 qubits); in record mode each branch\'s weight')
+    .option('--schedule', 'print the time schedule, idle windows and drift (detuning, zz) per qubit and pair; in record mode which measurement feeds which step')
     .option('--html <file>', 'also write a self-contained HTML report: schedule timeline, outcome bars, Bloch lengths, observables')
     .option('--max-memory <size>', 'refuse runs needing more memory than this, e.g. 2GiB (default: half the machine)')
     .option('--plan', 'print the plan of kernel calls (what is fused into each pass over the density matrix) instead of running')
@@ -105,7 +114,10 @@ function buildProgram(io: CliIO): Command {
         '  fray run circuits/ghz5.yaml\n' +
         '  fray run circuits/ghz5.yaml --device circuits/devices/bench-line5.yaml --top 4\n' +
         '  fray run circuits/ramsey-echo.yaml --set detune=0.025 --schedule\n' +
+        '  fray run circuits/ghz5.yaml --set qubits.all.t1=50us --set gates.cx.error=none\n' +
+        '  fray run circuits/ghz5.yaml --noise-scale 2 --layout 4,3,2,1,0\n' +
         '  fray run circuits/ghz5.yaml --shots 1000 --seed 7 --observe ZZIII,XXXXX --json\n' +
+        '  fray run circuits/teleport.yaml --schedule --state   mid-circuit measurement and feed-forward\n' +
         '  fray run circuits/qpe3-asap.yaml --html report.html   the timeline and charts in one page\n' +
         '  fray run circuits/bench/layers10x20.yaml --plan      what each pass over ρ fuses\n' +
         '  fray run circuits/bench/layers10x20.yaml --threads 1 one thread (or --no-fuse: one pass per operation)\n' +
@@ -140,6 +152,128 @@ function buildProgram(io: CliIO): Command {
       await channelCommand(file, name, opts, io);
     });
   channel.exitOverride();
+
+  const compare = program
+    .command('compare')
+    .description('run circuit variants (× devices × layouts) and rank them by a metric')
+    .argument('<files...>', 'circuit files (YAML), each a variant')
+    .addOption(new Option('--device <file>', 'a device profile instead of each circuit\'s own (repeatable: every circuit runs on every device)').argParser(collect))
+    .addOption(new Option('--layout <p0,p1,...>', 'a placement on the device (repeatable: each one a variant)').argParser(collectLayout))
+    .option('--by <metric>', 'rank by state (default), classical, tvd, purity, duration or observable:P (|⟨P⟩noisy − ⟨P⟩ideal|)')
+    .addOption(new Option('--require <cond>', 'a condition every variant must meet, METRIC OP NUMBER, e.g. state>=0.9 (repeatable; exit status 3 when one fails)').argParser(collect))
+    .addOption(new Option('--set <key=value...>', 'override a parameter or profile field in every variant (as in run)'))
+    .option('--noise-scale <c>', 'multiply every noise strength by C in every variant', parseNoiseScale)
+    .option('--json', 'print one JSON object instead of the table')
+    .option('--csv <file>', 'also write the table as CSV')
+    .option('--plot <file.svg>', 'also draw the ranking metric per variant as an SVG bar chart')
+    .addHelpText(
+      'after',
+      '\nExamples:\n' +
+        '  fray compare circuits/variants/*.yaml\n' +
+        '  fray compare circuits/ghz5.yaml --layout 0,1,2,3,4 --layout 4,3,2,1,0 --by classical\n' +
+        '  fray compare circuits/qpe3-asap.yaml circuits/qpe3-alap.yaml --require \'state>=0.78\' --json\n' +
+        '\nHigher is better for state, classical and purity; lower for tvd, duration and observable:P.\n' +
+        'Exit status 3 when any variant fails a --require (the table marks it).',
+    )
+    .action(async (files: string[], opts: Record<string, unknown>) => {
+      // each study command loads its modules (plots, worker pools, CSV) only when it runs
+      const { compareCommand } = await import('./compareCommand.js');
+      exitWith(await compareCommand(files, opts, io));
+    });
+  compare.exitOverride();
+
+  const sweep = program
+    .command('sweep')
+    .description('run one circuit over a grid of parameter or noise values: CSV/JSONL rows, a plot, shards for batch jobs')
+    .argument('<file>', 'circuit file (YAML)')
+    .addOption(new Option('--vary <key=range>', 'a key and its values: A..B:N, A..B:log:N or v1,v2,… with units where needed, e.g. qubits.all.t1=20us..200us:log:10, noise-scale=0..3:13 (repeatable: the Cartesian product, first outermost)').argParser(collect))
+    .addOption(new Option('--metric <metric>', 'what the table and plot show: state (default), classical, tvd, purity, duration, observable:P (repeatable)').argParser(collect))
+    .option('--out <file>', 'write one row per point as it finishes: FILE.csv or FILE.jsonl (each row equals fray run --set … --json)')
+    .option('--plot <file.svg>', 'draw the metrics against the varied key (two keys: a heat map of the first metric)')
+    .option('--target <cond>', 'draw this condition as a line on the plot, e.g. state>=0.95')
+    .option('--jobs <n>', "worker threads, whole points each (default: the machine's cores); the output is the same for any n", parsePositiveInt('--jobs'))
+    .option('--shard <i/n>', 'compute only points with index ≡ I (mod N) — for batch array jobs; join the parts with fray merge')
+    .option('--resume', 'continue --out FILE: skip the points already in it')
+    .option('--quiet', 'no progress on stderr')
+    .addHelpText(
+      'after',
+      '\nExamples:\n' +
+        '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..3:13 --plot scale.svg\n' +
+        '  fray sweep circuits/ghz5.yaml --vary gates.cx.error=0.001..0.03:log:12 --out cx.csv --target \'state>=0.9\' --plot cx.svg\n' +
+        '  fray sweep circuits/ghz5.yaml --vary qubits.3.t1=10us..100us:8 --vary gates.cx.error=0.002,0.008,0.02 --plot heat.svg\n' +
+        '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..3:100 --out part-$I.csv --shard $I/4   (then: fray merge part-*.csv --out all.csv)\n' +
+        '\nKeys are the --set keys (params, qubits.…, gates.…, couplings.…, idle, schedule) and noise-scale. CSV columns: point, the keys in base\n' +
+        'units (ns, Hz, probabilities), duration_ns, fidelity_state, fidelity_classical, tvd, purity, observable_<P>_noisy/_ideal.',
+    )
+    .action(async (file: string, opts: Record<string, unknown>) => {
+      const { sweepCommand } = await import('./sweepCommand.js');
+      await sweepCommand(file, opts, io);
+    });
+  // the options shared with run, listed after the command's own
+  addTargetOptions(sweep, 'a fixed noise scale (unless noise-scale is varied)');
+  sweep.exitOverride();
+
+  const merge = program
+    .command('merge')
+    .description("join a sweep's shard files in grid order (refuses parts of other sweeps, missing or doubled points)")
+    .argument('<parts...>', 'shard output files (.csv or .jsonl)')
+    .requiredOption('--out <file>', 'the whole sweep\'s file')
+    .option('--quiet', 'no summary on stderr')
+    .addHelpText('after', '\nExample:\n  fray merge part-0.csv part-1.csv part-2.csv part-3.csv --out sweep.csv')
+    .action(async (parts: string[], opts: Record<string, unknown>) => {
+      const { mergeCommand } = await import('./mergeCommand.js');
+      await mergeCommand(parts, opts, io);
+    });
+  merge.exitOverride();
+
+  const threshold = program
+    .command('threshold')
+    .description('find the value of one key at which a condition is just met (bracketing and bisection)')
+    .argument('<file>', 'circuit file (YAML)')
+    .requiredOption('--target <cond>', 'the condition, METRIC OP NUMBER, e.g. state>=0.95')
+    .requiredOption('--vary <key=a..b>', 'the key and its range, e.g. gates.cx.error=0.0001..0.05, qubits.all.t1=10us..200us, noise-scale=0..5')
+    .option('--tol <x>', 'stop when the bracket is this narrow, in the range\'s unit (default: a millionth of the range)')
+    .option('--json', 'print one JSON object instead of the report')
+    .addHelpText(
+      'after',
+      '\nExamples:\n' +
+        '  fray threshold circuits/ghz5.yaml --target \'state>=0.95\' --vary gates.cx.error=0.0001..0.05\n' +
+        '  fray threshold circuits/ghz5.yaml --target \'state>=0.9\' --vary noise-scale=0..5 --tol 0.001\n' +
+        '  fray threshold circuits/ghz5.yaml --target \'classical>=0.8\' --vary qubits.all.t1=10us..500us --json\n' +
+        '\nExit status 3 when the target is met nowhere in the range.',
+    )
+    .action(async (file: string, opts: Record<string, unknown>) => {
+      const { thresholdCommand } = await import('./thresholdCommand.js');
+      exitWith(await thresholdCommand(file, opts, io));
+    });
+  // the options shared with run, listed after the command's own
+  addTargetOptions(threshold, 'a fixed noise scale (unless noise-scale is the varied key)');
+  threshold.exitOverride();
+
+  const budget = program
+    .command('budget')
+    .description('where the infidelity comes from: each noise source alone, each left out, the remainder, per qubit')
+    .argument('<file>', 'circuit file (YAML)')
+    .option('--by <metric>', 'split the loss of state (default: 1 − F), classical, tvd, purity or observable:P')
+    .option('--json', 'print one JSON object instead of the tables')
+    .option('--plot <file.svg>', 'draw each source\'s loss as bars')
+    .addHelpText(
+      'after',
+      '\nExamples:\n' +
+        '  fray budget circuits/ghz5.yaml\n' +
+        '  fray budget circuits/ghz5.yaml --by classical --plot budget.svg\n' +
+        '  fray budget circuits/ghz5.yaml --layout 0,1,2,4,3 --json\n' +
+        '\nSources: relaxation (T1) and pure dephasing (T2 beyond T1), each gate name\'s noise kinds (a calibrated\n' +
+        "error: counts as the depolarizing it solves to in the full run), each custom channel, steps' own noise,\n" +
+        'readout. The remainder is the total minus the single-source losses: the sources\' interaction.',
+    )
+    .action(async (file: string, opts: Record<string, unknown>) => {
+      const { budgetCommand } = await import('./budgetCommand.js');
+      await budgetCommand(file, opts, io);
+    });
+  // the options shared with run, listed after the command's own
+  addTargetOptions(budget, 'multiply every noise strength by C first');
+  budget.exitOverride();
 
   program
     .command('schema')

@@ -1,21 +1,17 @@
 import { planFile, simulate } from '../api/simulate.js';
-import { formatPlan, planToJson } from '../plan/formatPlan.js';
+import { formatPlan, formatRecordPlan, planToJson, recordPlanToJson } from '../plan/formatPlan.js';
 import { parseByteSize } from '../engine/memory.js';
 import { renderRunReport } from './runReport.js';
-import { toJson } from './json.js';
+import { toJson } from '../results/json.js';
 import { makeStyle, wantColor } from './style.js';
 import { UsageError, VERSION, type CliIO } from './main.js';
+import { parseSetOptions } from './options.js';
 import { writeOutputFile } from './writeOutput.js';
 import { runPage } from '../html/index.js';
 
 /** `fray run FILE`: parses the options, runs the simulation, writes the report or JSON in one piece. */
 export async function runCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
-  const set: Record<string, string> = {};
-  for (const s of (opts['set'] as string[] | undefined) ?? []) {
-    const eq = s.indexOf('=');
-    if (eq <= 0) throw new UsageError(`--set ${s}: expected name=value, e.g. --set theta=0.4`);
-    set[s.slice(0, eq).trim()] = s.slice(eq + 1);
-  }
+  const set = parseSetOptions(opts['set']);
   const observe = ((opts['observe'] as string[] | undefined) ?? []).flatMap((s) => s.split(',')).map((s) => s.trim()).filter((s) => s !== '');
   let maxMemoryBytes: number | undefined;
   if (opts['maxMemory'] !== undefined) {
@@ -30,12 +26,19 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
     ...(opts['seed'] !== undefined ? { seed: opts['seed'] as number } : {}),
     ...(maxMemoryBytes !== undefined ? { maxMemoryBytes } : {}),
     ...(opts['threads'] !== undefined ? { threads: opts['threads'] as number } : {}),
+    ...(opts['noiseScale'] !== undefined ? { noiseScale: opts['noiseScale'] as number } : {}),
+    ...(opts['layout'] !== undefined ? { layout: opts['layout'] as number[] } : {}),
     fuse: opts['fuse'] !== false,
   };
   const html = opts['html'] as string | undefined;
   if (html !== undefined && opts['plan'] === true) throw new UsageError('--html draws a run; --plan does not run the circuit: give one of them');
   if (opts['plan'] === true) {
     const planned = planFile(file, options);
+    if (planned.segments !== undefined) {
+      const bits = planned.bits ?? [];
+      io.stdout.write(opts['json'] ? toJson(recordPlanToJson(planned.segments, bits)) + '\n' : formatRecordPlan(planned.segments, bits));
+      return;
+    }
     const origins = planned.program.origins;
     io.stdout.write(opts['json'] ? toJson(planToJson(planned.plan, origins)) + '\n' : formatPlan(planned.plan, origins));
     return;

@@ -30,7 +30,10 @@ export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Sty
   kv('file', r.file);
   kv('device', deviceDescription(sim));
   const measured = r.measured.map((q) => qubitName(q, reg)).join(' ');
-  kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, measured: ${measured}`);
+  if (r.bits !== undefined) kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, record: ${r.bits.join(' ')}`);
+  else kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, measured: ${measured}`);
+  if (r.layout !== undefined) kv('layout', r.layout.map((p, i) => `${qubitName(i, reg)}→${p}`).join(' ') + ' (circuit qubit → device qubit)');
+  if (r.noise_scale !== undefined) kv('noise', `every strength × ${r.noise_scale} (--noise-scale)`);
   kv('duration', `${formatDuration(r.duration_ns)} (${r.schedule.toUpperCase()} schedule)`);
   const facts = deviceFacts(sim);
   if (facts.readout !== undefined) kv('readout', facts.readout);
@@ -43,16 +46,25 @@ export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Sty
   lines.push('');
 
   const ranked = topOutcomes(r.probabilities, opts.top).map((k) => ({ k }));
-  const total = 1 << r.measured.length;
-  lines.push(style.bold(`Most likely outcomes (${ranked.length} of ${total}; qubit ${qubitName(r.measured[0]!, reg)} leftmost)`));
-  const w = Math.max(7, r.measured.length);
-  lines.push(`  ${style.dim('outcome'.padEnd(w))}  ${style.dim('ideal'.padStart(8))}  ${style.dim('noisy'.padStart(8))}  ${style.dim('measured'.padStart(8))}`);
+  const record = r.bits !== undefined ? recordColumns(r.bits) : undefined;
+  const show = (k: string): string => (record !== undefined ? record.cells(k) : k);
+  let w: number;
+  if (record !== undefined) {
+    lines.push(style.bold(`Most likely records (${ranked.length} of ${Math.pow(2, r.bits!.length)}; recorded values as feed-forward saw them under 'measured')`));
+    w = Math.max(7, record.header.length);
+    lines.push(`  ${style.dim(record.header.padEnd(w))}  ${style.dim('ideal'.padStart(8))}  ${style.dim('noisy'.padStart(8))}  ${style.dim('measured'.padStart(8))}`);
+  } else {
+    const total = 1 << r.measured.length;
+    lines.push(style.bold(`Most likely outcomes (${ranked.length} of ${total}; qubit ${qubitName(r.measured[0]!, reg)} leftmost)`));
+    w = Math.max(7, r.measured.length);
+    lines.push(`  ${style.dim('outcome'.padEnd(w))}  ${style.dim('ideal'.padStart(8))}  ${style.dim('noisy'.padStart(8))}  ${style.dim('measured'.padStart(8))}`);
+  }
   for (const { k } of ranked) {
     const pi = r.probabilities.ideal[k] ?? 0;
     const pn = r.probabilities.noisy[k] ?? 0;
     const pm = r.probabilities.measured[k] ?? 0;
     const bar = style.cyan('█'.repeat(Math.round(pm * BAR_WIDTH))) + style.dim('·'.repeat(Math.max(0, Math.round(pi * BAR_WIDTH) - Math.round(pm * BAR_WIDTH))));
-    lines.push(`  ${k.padEnd(w)}  ${pi.toFixed(4).padStart(8)}  ${pn.toFixed(4).padStart(8)}  ${pm.toFixed(4).padStart(8)}  ${bar}`);
+    lines.push(`  ${show(k).padEnd(w)}  ${pi.toFixed(4).padStart(8)}  ${pn.toFixed(4).padStart(8)}  ${pm.toFixed(4).padStart(8)}  ${bar}`);
   }
   lines.push(`  ${style.dim(`bar: measured probability (█), shortfall against ideal (·)`)}`);
 
@@ -70,7 +82,8 @@ export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Sty
     lines.push('');
     lines.push(style.bold(`Sampled counts (${r.shots} shots, seed ${r.seed})`));
     const sorted = Object.entries(r.counts).sort((a, b) => b[1] - a[1] || (a[0] < b[0] ? -1 : 1));
-    for (const [k, c] of sorted.slice(0, opts.top)) lines.push(`  ${k.padEnd(w)}  ${String(c).padStart(8)}`);
+    if (record !== undefined) lines.push(`  ${style.dim(record.header.padEnd(w))}  ${style.dim('count'.padStart(8))}`);
+    for (const [k, c] of sorted.slice(0, opts.top)) lines.push(`  ${show(k).padEnd(w)}  ${String(c).padStart(8)}`);
     if (sorted.length > opts.top) lines.push(style.dim(`  … ${sorted.length - opts.top} more outcomes`));
   }
 
@@ -83,6 +96,15 @@ export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Sty
     for (const w of r.warnings) lines.push(style.yellow(`  ${w}`));
   }
   return lines.join('\n') + '\n';
+}
+
+/** Record keys shown bit by bit under the bit names: header 'm1 a b', key '101' as '1  0 1'. */
+function recordColumns(bits: readonly string[]): { header: string; cells: (key: string) => string } {
+  const widths = bits.map((b) => Math.max(1, b.length));
+  return {
+    header: bits.join(' '),
+    cells: (key) => bits.map((_, i) => (key[i] ?? '?').padEnd(widths[i]!)).join(' ').trimEnd(),
+  };
 }
 
 function fmtSigned(x: number): string {
@@ -100,9 +122,22 @@ function renderState(sim: Simulation, style: Style): string[] {
   lines.push(`  ${style.dim('qubit'.padEnd(8))}${style.dim('ideal'.padEnd(30))}${style.dim('noisy')}`);
   const vec = (v: readonly number[]) => `(${v.map((x) => (Math.abs(x) < 5e-7 ? 0 : x).toFixed(4).padStart(7)).join(',')})`;
   r.bloch.ideal.forEach((b, q) => lines.push(`  ${qubitName(q, reg).padEnd(8)}${vec(b).padEnd(30)}${vec(r.bloch.noisy[q]!)}`));
+  if (sim.branches !== undefined && r.bits !== undefined) {
+    const record = recordColumns(r.bits);
+    const keys = [...new Set([...sim.branches.noisy.keys(), ...sim.branches.ideal.keys()])].sort();
+    const w = Math.max(6, record.header.length);
+    lines.push('', style.bold(`Branches: one density matrix per record with non-zero weight (${sim.branches.noisy.size} noisy, ${sim.branches.ideal.size} ideal)`));
+    lines.push(`  ${style.dim(record.header.padEnd(w))}  ${style.dim('ideal'.padStart(10))}  ${style.dim('noisy'.padStart(10))}`);
+    for (const k of keys) {
+      const pi = r.probabilities.ideal[k] ?? 0;
+      const pm = r.probabilities.measured[k] ?? 0;
+      lines.push(`  ${record.cells(k).padEnd(w)}  ${pi.toFixed(6).padStart(10)}  ${pm.toFixed(6).padStart(10)}`);
+    }
+    lines.push(`  ${style.dim('weight Tr ρ_r of each branch; noisy = every noise source, readout error included')}`);
+  }
   const n = r.qubits;
   if (n <= STATE_PRINT_MAX_QUBITS) {
-    lines.push('', style.bold('Noisy density matrix ρ (rows and columns in basis order, qubit 0 leftmost)'));
+    lines.push('', style.bold(`Noisy density matrix ρ${r.bits !== undefined ? ' = Σ_r ρ_r' : ''} (rows and columns in basis order, qubit 0 leftmost)`));
     const d = 1 << n;
     const data = sim.rho.data;
     for (let i = 0; i < d; i++) {
@@ -128,23 +163,45 @@ function complexText(re: number, im: number): string {
 function renderSchedule(sim: Simulation, style: Style): string[] {
   const reg = sim.circuit.register;
   const lines = [style.bold(`Schedule (${sim.schedule.policy.toUpperCase()}, times in ns)`)];
-  lines.push(`  ${style.dim('step'.padEnd(6))}${style.dim('operation'.padEnd(14))}${style.dim('qubits'.padEnd(14))}${style.dim('start'.padStart(10))}${style.dim('end'.padStart(10))}`);
-  for (const it of sim.schedule.items) {
+  const bits = sim.circuit.bits ?? [];
+  const names = sim.schedule.items.map(({ op }) => {
+    let name = operationName(op);
+    if (op.kind === 'measure' && op.bit !== undefined) name += ` → ${bits[op.bit]}`;
+    if ((op.kind === 'gate' || op.kind === 'reset' || op.kind === 'channel') && op.condition !== undefined) {
+      name += ` if ${op.condition.terms.map((t) => `${bits[t.bit]}=${t.value}`).join(',')}`;
+    }
+    return name;
+  });
+  const ow = Math.max(14, ...names.map((s) => s.length + 2));
+  lines.push(`  ${style.dim('step'.padEnd(6))}${style.dim('operation'.padEnd(ow))}${style.dim('qubits'.padEnd(14))}${style.dim('start'.padStart(10))}${style.dim('end'.padStart(10))}`);
+  sim.schedule.items.forEach((it, i) => {
     const op = it.op;
-    const name = operationName(op);
-    lines.push(`  ${String(op.step + 1).padEnd(6)}${`${name} `.padEnd(14)}${`${op.qubits.map((q) => qubitName(q, reg)).join(' ')} `.padEnd(14)}${num(it.start).padStart(10)}${num(it.end).padStart(10)}`);
-  }
+    lines.push(`  ${String(op.step + 1).padEnd(6)}${names[i]!.padEnd(ow)}${op.qubits.map((q) => qubitName(q, reg)).join(' ').padEnd(14)}${num(it.start).padStart(10)}${num(it.end).padStart(10)}`);
+  });
   lines.push('', style.bold('Idle windows (relaxation applies when the profile says idle: thermal)'));
   if (sim.schedule.idleWindows.length === 0) lines.push(style.dim('  none'));
   for (const w of sim.schedule.idleWindows) {
     lines.push(`  qubit ${qubitName(w.qubit, reg).padEnd(6)}${num(w.start).padStart(10)} → ${num(w.end).padStart(10)}  (${formatDuration(w.end - w.start)})`);
   }
   lines.push(`  ${style.dim(`total duration ${formatDuration(sim.schedule.duration)}`)}`);
+  if (sim.circuit.bits !== null) {
+    lines.push('', style.bold('Classical dependencies (a measured bit feeds a conditioned step no earlier than its end + latency)'));
+    if (sim.schedule.feeds.length === 0) lines.push(style.dim('  none'));
+    for (const f of sim.schedule.feeds) {
+      const m = sim.schedule.items[f.measure]!;
+      const to = sim.schedule.items[f.to]!;
+      const toName = operationName(to.op);
+      lines.push(
+        `  step ${m.op.step + 1} measure ${qubitName(m.op.qubits[0]!, reg)} → bit ${bits[f.bit]} → step ${to.op.step + 1} ${toName} ${to.op.qubits.map((q) => qubitName(q, reg)).join(' ')}` +
+          `  (measurement ends ${num(m.end)}, latency ${formatDuration(f.latency)}, step starts ${num(to.start)})`,
+      );
+    }
+  }
   lines.push(...renderDrift(sim, style));
   return lines;
 }
 
-/** The always-on drift per qubit and coupled pair, with the time it acts (from 0 until measurement starts, or the end). */
+/** The always-on drift per qubit and coupled pair, with the time it acts (from 0 until a terminal measurement starts, or the end). */
 function renderDrift(sim: Simulation, style: Style): string[] {
   const reg = sim.circuit.register;
   const p = sim.profile;

@@ -13,6 +13,12 @@ export type Instruction =
   /** ρ → |0⟩⟨0|_q ⊗ Tr_q ρ. */
   | { readonly op: 'reset'; readonly qubit: number };
 
+/** Where an instruction comes from: the step (0-based; −1 for idle windows) and what it is (e.g. 'cx', 'thermal during cx', 'idle 120 ns', 'depolarizing', 'reset'). */
+export interface Origin {
+  readonly step: number;
+  readonly what: string;
+}
+
 /** Kraus operators of the 'reset' instruction on one qubit: |0⟩⟨0| and |0⟩⟨1| (ρ → |0⟩⟨0| Tr ρ). */
 export const RESET_KRAUS: readonly CMatrix[] = [
   fromRows([

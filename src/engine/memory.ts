@@ -23,6 +23,26 @@ export function estimateRunBytes(n: number, idealPure: boolean): number {
   return densityMatrixBytes(n) + (idealPure ? stateVectorBytes(n) : densityMatrixBytes(n)) + RUN_OVERHEAD_BYTES;
 }
 
+/**
+ * Bytes a record-mode run needs (format version 2, part B): `branches` noisy density matrices
+ * (the most the record can hold at once), as many ideal records of at most `idealBytesPerBranch`
+ * each, one more density matrix for Σ_r ρ_r, and RUN_OVERHEAD_BYTES.
+ */
+export function estimateRecordRunBytes(n: number, branches: number, idealBytesPerBranch: number): number {
+  return (branches + 1) * densityMatrixBytes(n) + branches * idealBytesPerBranch + RUN_OVERHEAD_BYTES;
+}
+
+/** Throws MemoryLimitError when estimateRecordRunBytes exceeds limitBytes; the message counts the branches. */
+export function checkRecordMemory(n: number, branches: number, idealBytesPerBranch: number, limitBytes: number): void {
+  const needed = estimateRecordRunBytes(n, branches, idealBytesPerBranch);
+  if (needed <= limitBytes) return;
+  const message =
+    `${n} qubit${n === 1 ? '' : 's'} with up to ${branches} record branches need about ${formatBytes(needed)} ` +
+    `(${branches} noisy density matrices of ${formatBytes(densityMatrixBytes(n))}, their sum, ideal branches up to ${formatBytes(branches * idealBytesPerBranch)}, overhead ${formatBytes(RUN_OVERHEAD_BYTES)}) ` +
+    `but the limit is ${formatBytes(limitBytes)}; raise it with --max-memory, or record into fewer distinct bits`;
+  throw new MemoryLimitError(message, needed, limitBytes);
+}
+
 /** The default memory limit in bytes: half of the machine's total memory (os.totalmem()). */
 export function defaultMemoryLimit(): number {
   return Math.floor(totalmem() / 2);

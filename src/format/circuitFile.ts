@@ -9,11 +9,12 @@ import { fileStart, ProblemList, type SourcePosition } from './problem.js';
 import { readProfile, type ProfileSpec } from './profileSpec.js';
 import { asMap, checkKeys, entryOf, offsetInto, readString } from './read.js';
 import { readRegister } from './register.js';
+import { RecordReader } from './record.js';
 import { readSteps } from './steps.js';
 import { describe, parseYamlTree, type YNode } from './yamlTree.js';
 
 /** Top-level keys of a circuit file. */
-export const CIRCUIT_KEYS = ['name', 'qubits', 'device', 'noise', 'params', 'gates', 'channels', 'observe', 'steps'] as const;
+export const CIRCUIT_KEYS = ['name', 'qubits', 'device', 'noise', 'params', 'gates', 'channels', 'observe', 'bits', 'steps'] as const;
 
 /** Options that change how a circuit file reads. */
 export interface CircuitReadOptions {
@@ -30,6 +31,20 @@ export function readCircuit(
 ): Circuit | undefined {
   const root = parseYamlTree(text, file, problems);
   if (root === undefined) return undefined;
+  return readCircuitTree(root, file, problems, options);
+}
+
+/**
+ * Validates a circuit file's located YAML tree (parsed once by parseYamlTree) into the typed
+ * circuit. Studies call this again per parameter point with new `set` values: the YAML is
+ * never re-parsed, only re-typed (angles, durations and matrices depend on the params).
+ */
+export function readCircuitTree(
+  root: YNode,
+  file: string,
+  problems: ProblemList,
+  options: CircuitReadOptions = {},
+): Circuit | undefined {
   const map = asMap(root, 'a circuit file', problems);
   if (map === undefined) return undefined;
   checkKeys(map, CIRCUIT_KEYS, 'the circuit file', problems);
@@ -78,7 +93,9 @@ export function readCircuit(
   }
 
   if (register === undefined || se === undefined) return undefined;
-  const operations = readSteps(se.value, { register, params, gates, channels }, problems);
+  const record = new RecordReader(se.value);
+  const read = readSteps(se.value, { register, params, gates, channels }, problems, record);
+  const { bits, operations } = record.finish(entryOf(map, 'bits'), read, problems);
   if (!problems.ok) return undefined;
 
   const gateArity = new Map<string, number>();
@@ -101,6 +118,7 @@ export function readCircuit(
     operations,
     stepsAt: se.keyAt,
     qubitsAt: qe!.value.at,
+    bits,
   };
 }
 
@@ -143,7 +161,7 @@ function readParams(
     if (!declared.has(k)) {
       const near = suggest(k, [...declared]);
       const hint = near !== undefined ? `; did you mean '${near}'?` : declared.size > 0 ? `; it has: ${[...declared].join(', ')}` : '; it declares no params';
-      problems.error(at, 'unknown-param', `--set ${k}: the circuit has no parameter '${k}'${hint}`);
+      problems.error(at, 'unknown-param', `--set ${k}=${overrides[k]}: the circuit has no parameter '${k}'${hint}`);
     }
   }
   return { ...params };

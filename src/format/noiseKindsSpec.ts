@@ -1,7 +1,7 @@
 import { NOISE_KIND_KEYS, type NoiseKinds } from '../noise/kinds.js';
 import type { ProblemList, SourcePosition } from './problem.js';
 import { readAngle } from './angles.js';
-import { asMap, checkKeys, readProbability, readString, unknownKey } from './read.js';
+import { asMap, checkKeys, readProbability, readString, unknownKey, type NumberEnv } from './read.js';
 import type { YEntry, YMap } from './yamlTree.js';
 
 /** A value with the position of the key or value it was read from. */
@@ -44,7 +44,7 @@ export function readNoiseKindEntry(
   into: NoiseKindsSpec,
   where: string,
   problems: ProblemList,
-  env: Readonly<Record<string, number>> = {},
+  env?: NumberEnv,
 ): boolean {
   const what = `'${e.key}' in ${where}`;
   switch (e.key) {
@@ -55,7 +55,7 @@ export function readNoiseKindEntry(
     case 'bit_flip':
     case 'phase_flip':
     case 'bit_phase_flip': {
-      const p = readProbability(e.value, what, problems);
+      const p = readProbability(e.value, what, problems, env);
       if (p !== undefined) into[e.key] = { value: p, at: e.value.at };
       return true;
     }
@@ -65,7 +65,7 @@ export function readNoiseKindEntry(
       checkKeys(m, PAULI_KEYS, what, problems);
       const get = (k: 'x' | 'y' | 'z'): number | undefined => {
         const ent = m.entries.find((x) => x.key === k);
-        return ent === undefined ? 0 : readProbability(ent.value, `'${k}' of ${what}`, problems);
+        return ent === undefined ? 0 : readProbability(ent.value, `'${k}' of ${what}`, problems, env);
       };
       const x = get('x');
       const y = get('y');
@@ -86,7 +86,7 @@ export function readNoiseKindEntry(
       let ok = true;
       for (const ent of m.entries) {
         if (!(COHERENT_KEYS as readonly string[]).includes(ent.key)) continue;
-        const v = readAngle(ent.value, `'${ent.key}' of ${what}`, env, problems);
+        const v = readAngle(ent.value, `'${ent.key}' of ${what}`, env ?? {}, problems);
         if (v === undefined) ok = false;
         else angles[ent.key as (typeof COHERENT_KEYS)[number]] = v;
       }
@@ -111,7 +111,7 @@ export function readNoiseKinds(
   where: string,
   problems: ProblemList,
   allowError = true,
-  env: Readonly<Record<string, number>> = {},
+  env?: NumberEnv,
 ): NoiseKindsSpec {
   const kinds: NoiseKindsSpec = {};
   const allowed = NOISE_KIND_KEYS.filter((k) => allowError || k !== 'error');

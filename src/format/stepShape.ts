@@ -3,7 +3,7 @@ import type { ProblemList } from './problem.js';
 import type { YEntry, YMap } from './yamlTree.js';
 
 /** Keys that modify a step rather than name its action. */
-export const STEP_MODIFIERS = ['angle', 'angles', 'noise', 'for', 'on', 'label'] as const;
+export const STEP_MODIFIERS = ['angle', 'angles', 'noise', 'for', 'on', 'label', 'into', 'if'] as const;
 
 /** Step actions other than gate names. */
 export const STEP_ACTIONS = ['idle', 'barrier', 'measure', 'reset'] as const;

@@ -4,6 +4,7 @@ import { readAngle } from './angles.js';
 import { angleNodes, type GateLibrary } from './gateLibrary.js';
 import { misplacedZz, readNoiseKinds, type NoiseKindsSpec } from './noiseKindsSpec.js';
 import type { ProblemList, SourcePosition } from './problem.js';
+import { hasInto, RecordReader } from './record.js';
 import { asMap, readDuration, readString } from './read.js';
 import { qubitName } from './register.js';
 import { checkModifiers, splitStep, type StepShape } from './stepShape.js';
@@ -18,9 +19,15 @@ export interface StepContext {
   readonly channels: ReadonlyMap<string, CustomChannel>;
 }
 
-/** Reads `steps:` into operations in program order (one per application). */
-export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList): Operation[] {
+/**
+ * Reads `steps:` into operations in program order (one per application). Bits named by
+ * `into`/`if` are numbered in order of first write by `record`, whose finish()
+ * maps them to the record's order.
+ */
+export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList, record: RecordReader): Operation[] {
   const ops: Operation[] = [];
+  // Record mode (any `into`): no measurement is terminal.
+  const recordMode = hasInto(node);
   if (node.kind !== 'seq') {
     problems.error(node.at, 'bad-steps', `'steps' must be a list of steps, not ${describe(node)}`);
     return ops;
@@ -41,6 +48,7 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
     const where = `step ${stepNo} (${action})`;
     const base = { step: index, at: shape.action?.keyAt ?? map.at, ...readLabel(shape, where, problems) };
     const afterMeasure = (apps: readonly (readonly number[])[]): boolean => {
+      if (recordMode) return false;
       for (const app of apps) for (const q of app) {
         const m = measured.get(q);
         if (m !== undefined) {
@@ -51,9 +59,16 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
       return false;
     };
 
+    // `if` modifies gate, reset and standalone noise steps; checkModifiers refuses it elsewhere.
+    const takesIf = action !== 'idle' && action !== 'barrier' && action !== 'measure';
+    const ifEntry = takesIf ? shape.modifiers.get('if') : undefined;
+    const condition = ifEntry === undefined ? undefined : record.readIf(ifEntry, where, problems);
+    if (ifEntry !== undefined && condition === undefined) return;
+    const cond = condition !== undefined ? { condition } : {};
+
     if (shape.action === null) {
       // Standalone noise step.
-      if (!checkModifiers(shape, ['noise', 'on', 'label'], 'a standalone noise step', where, problems)) return;
+      if (!checkModifiers(shape, ['noise', 'on', 'label', 'if'], 'a standalone noise step', where, problems)) return;
       const noiseEntry = shape.modifiers.get('noise')!;
       const on = shape.modifiers.get('on');
       if (on === undefined) {
@@ -66,7 +81,7 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
       const apps = readTargets(on.value, { kind: 'channel' }, ctx.register, where, problems);
       if (apps === undefined) return;
       if (!checkChannelArity(kinds.channel, apps, ctx, where, problems) || !checkZzArity(kinds, apps, where, problems, true) || afterMeasure(apps)) return;
-      for (const qubits of apps) ops.push({ ...base, kind: 'channel', qubits, noise: { kinds, at: noiseEntry.value.at } });
+      for (const qubits of apps) ops.push({ ...base, kind: 'channel', qubits, noise: { kinds, at: noiseEntry.value.at }, ...cond });
       return;
     }
 
@@ -79,7 +94,7 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
           problems.error(shape.action.keyAt, 'missing-for', `${where}: idle needs 'for' with a duration, e.g. 'for: 2us'`);
           return;
         }
-        const duration = readDuration(f.value, `'for' of ${where}`, problems);
+        const duration = readDuration(f.value, `'for' of ${where}`, problems, ctx.params);
         const apps = readTargets(targetNode, { kind: 'each' }, ctx.register, where, problems);
         if (duration === undefined || apps === undefined) return;
         for (const qubits of apps) ops.push({ ...base, kind: 'idle', qubits, duration });
@@ -93,17 +108,21 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
         return;
       }
       case 'measure': {
-        if (!checkModifiers(shape, ['label'], 'measure', where, problems)) return;
+        if (!checkModifiers(shape, ['label', 'into'], 'measure', where, problems)) return;
         const apps = readTargets(targetNode, { kind: 'each' }, ctx.register, where, problems);
         if (apps === undefined || afterMeasure(apps)) return;
-        for (const qubits of apps) {
+        const into = shape.modifiers.get('into');
+        if (into === undefined) record.notePlainMeasure(stepNo, base.at);
+        const bits = into === undefined ? undefined : record.readInto(into, apps.length, stepNo, where, problems);
+        if (into !== undefined && bits === undefined) return;
+        apps.forEach((qubits, i) => {
           measured.set(qubits[0]!, { step: stepNo, at: base.at });
-          ops.push({ ...base, kind: 'measure', qubits });
-        }
+          ops.push({ ...base, kind: 'measure', qubits, ...(bits !== undefined ? { bit: bits[i]! } : {}) });
+        });
         return;
       }
       case 'reset': {
-        if (!checkModifiers(shape, ['noise', 'label'], 'reset', where, problems)) return;
+        if (!checkModifiers(shape, ['noise', 'label', 'if'], 'reset', where, problems)) return;
         const noise = readOverride(shape.modifiers.get('noise'), where, false, ctx.params, problems);
         if (noise?.kinds.coherent !== undefined) {
           problems.error(noise.kinds.coherent.at, 'coherent-on-reset', `${where}: 'coherent' needs a gate to follow; a reset has no unitary to over- or under-rotate`);
@@ -112,12 +131,12 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
         const apps = readTargets(targetNode, { kind: 'each' }, ctx.register, where, problems);
         if (noise === null || apps === undefined || afterMeasure(apps)) return;
         if (noise !== undefined && !checkChannelArity(noise.kinds.channel, apps, ctx, where, problems)) return;
-        for (const qubits of apps) ops.push({ ...base, kind: 'reset', qubits, ...(noise ? { noise } : {}) });
+        for (const qubits of apps) ops.push({ ...base, kind: 'reset', qubits, ...(noise ? { noise } : {}), ...cond });
         return;
       }
       default: {
         const gate = ctx.gates.get(action)!;
-        if (!checkModifiers(shape, ['angle', 'angles', 'noise', 'label'], `gate ${action}`, where, problems)) return;
+        if (!checkModifiers(shape, ['angle', 'angles', 'noise', 'label', 'if'], `gate ${action}`, where, problems)) return;
         const angleNs = angleNodes(shape.modifiers, gate, shape.action.keyAt, where, problems);
         const noise = readOverride(shape.modifiers.get('noise'), where, true, ctx.params, problems);
         const apps = readTargets(targetNode, gate.qubits === 1 ? { kind: 'each' } : { kind: 'tuple', arity: gate.qubits }, ctx.register, where, problems);
@@ -134,7 +153,7 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList):
         const local = gate.kind === 'composite' ? partsOf(gate.name, angles, Array.from({ length: gate.qubits }, (_, i) => i), ctx.gates, problems) : undefined;
         for (const qubits of apps) {
           const parts = local === undefined ? {} : { parts: placeParts(local, qubits) };
-          ops.push({ ...base, kind: 'gate', name: gate.name, qubits, unitary, ...(noise ? { noise } : {}), ...parts });
+          ops.push({ ...base, kind: 'gate', name: gate.name, qubits, unitary, ...(noise ? { noise } : {}), ...cond, ...parts });
         }
       }
     }

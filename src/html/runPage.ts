@@ -31,7 +31,11 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
   const r = sim.result;
   const reg = sim.circuit.register;
   const name = (q: number) => qubitName(q, reg);
-  const bitOrder = r.measured.map(name).join(' ');
+  // record mode: outcomes are the record's bits (leftmost first); otherwise the measured qubits
+  const record = r.bits !== undefined;
+  const bitNames = record ? [...r.bits!] : r.measured.map(name);
+  const bitOrder = bitNames.join(' ');
+  const leftmost = record ? `bit ${bitNames[0] ?? ''}` : `qubit ${bitNames[0] ?? ''}`;
   const sections: PageSection[] = [];
 
   sections.push({
@@ -64,7 +68,9 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
     heading: 'Schedule',
     note:
       `One lane per qubit; each operation is a box from its start to its end on every qubit it acts on, a line joins the boxes of a multi-qubit gate. ` +
-      `M marks a measurement, R a reset, N a standalone noise step; dashed ticks are barriers and the dashed line is the end of the circuit. ${idleNote} ` +
+      `M marks a measurement, R a reset, N a standalone noise step; dashed ticks are barriers and the dashed line is the end of the circuit. ` +
+      (sim.schedule.feeds.length > 0 ? `A label ending in ? is a step that runs only when record bits agree; a dotted line runs from each measurement to the steps its bit conditions. ` : '') +
+      `${idleNote} ` +
       `Hover a box or a band for its exact figures.`,
     body:
       figure(await renderSvg(timelineSpec(tl)), `${r.schedule.toUpperCase()} schedule, ${formatDuration(r.duration_ns)} in total.${zzCaption(sim)}`) +
@@ -99,12 +105,14 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
       return { category: k, series: s, value: p, title: `${k}: ${s} probability ${p.toPrecision(6)}` };
     }),
   );
-  const total = 2 ** r.measured.length;
-  const bitTitle = `outcome, bits ${bitOrder} (qubit ${name(r.measured[0]!)} leftmost)`;
+  const total = 2 ** bitNames.length;
+  const bitTitle = `${record ? 'record' : 'outcome'}, bits ${bitOrder} (${leftmost} leftmost)`;
   sections.push({
     id: 'outcomes',
-    heading: `Most likely outcomes (${keys.length} of ${total})`,
-    note: `Ideal (hollow), noisy before readout (light) and measured with readout error (dark). Each bit string lists the measured qubits ${bitOrder}, qubit ${name(r.measured[0]!)} leftmost.`,
+    heading: `Most likely ${record ? 'records' : 'outcomes'} (${keys.length} of ${total})`,
+    note: record
+      ? `Ideal (hollow), noisy (light) and measured as feed-forward saw it, readout error included (dark). Each bit string lists the record bits ${bitOrder}, ${leftmost} leftmost.`
+      : `Ideal (hollow), noisy before readout (light) and measured with readout error (dark). Each bit string lists the measured qubits ${bitOrder}, ${leftmost} leftmost.`,
     body: pair(
       figure(await renderSvg(comparisonBarsSpec({ bars, categories: keys, categoryTitle: bitTitle, valueTitle: 'probability', domain: [0, 1], monospace: true })), 'Outcome probabilities.'),
       table(
@@ -174,7 +182,7 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
       ['file', r.file],
       ['device', deviceDescription(sim)],
       ['qubits', `${r.qubits}${reg.labels !== null ? ` (${reg.labels.join(' ')})` : ''}`],
-      ['measured', `${bitOrder} (bit order of every outcome, left to right)`],
+      [record ? 'record' : 'measured', `${bitOrder} (bit order of every outcome, left to right)`],
       ['duration', formatDuration(r.duration_ns)],
       ['schedule', `${r.schedule.toUpperCase()}; idle windows ${sim.profile.idle === 'thermal' ? 'relax (idle: thermal)' : 'do not relax (idle: none)'}`],
       ...(facts.readout !== undefined ? [['readout', facts.readout] as const] : []),

@@ -16,7 +16,7 @@ import { plainKinds } from '../format/noiseKindsSpec.js';
 import { qubitName } from '../format/register.js';
 import { coherenceLimitedInfidelity } from '../noise/gateNoise.js';
 import type { OperationKind } from '../plots/palette.js';
-import type { TimelineBox, TimelineData, TimelineIdle, TimelineLink } from '../plots/timeline.js';
+import type { TimelineBox, TimelineData, TimelineFeed, TimelineIdle, TimelineLink } from '../plots/timeline.js';
 
 /** Circuits at least this long (ns) are drawn in µs, shorter ones in ns. */
 export const MICROSECOND_AXIS_FROM_NS = 2000;
@@ -37,6 +37,7 @@ export function timelineData(sim: Simulation): TimelineData {
   // Untimed circuits are drawn in step order: step s occupies [s, s + 0.8].
   const place = (op: Operation, start: number, end: number) => (timed ? { start: start * scale, end: end * scale } : { start: op.step, end: op.step + 0.8 });
   const lastStep = Math.max(0, ...sim.schedule.items.map((i) => i.op.step));
+  const bits = sim.circuit.bits ?? [];
   const boxes: TimelineBox[] = [];
   const links: TimelineLink[] = [];
   const barriers: { lane: number; at: number }[] = [];
@@ -57,7 +58,11 @@ export function timelineData(sim: Simulation): TimelineData {
       (timed ? ` · ${num(item.start)} ns → ${num(item.end)} ns (${formatDuration(item.end - item.start)})` : ' · no durations in the profile') +
       (noise !== '' ? ` · ${noise}` : '');
     const label = op.kind === 'gate' ? op.name : op.kind === 'measure' ? 'M' : op.kind === 'reset' ? 'R' : 'N';
-    for (const q of op.qubits) boxes.push({ lane: q, start, end, kind, label, title });
+    const condition = op.kind === 'gate' || op.kind === 'reset' || op.kind === 'channel' ? op.condition : undefined;
+    const recordText =
+      (op.kind === 'measure' && op.bit !== undefined ? ` · into bit ${bits[op.bit]}` : '') +
+      (condition !== undefined ? ` · only if ${condition.terms.map((t) => `${bits[t.bit]} = ${t.value}`).join(' and ')}` : '');
+    for (const q of op.qubits) boxes.push({ lane: q, start, end, kind, label, title: title + recordText, ...(condition !== undefined ? { conditional: true } : {}) });
     if (op.qubits.length > 1) {
       const lanes = [...op.qubits].sort((a, b) => a - b);
       links.push({ at: start + Math.max(end - start, 0) / 2, from: lanes[0]!, to: lanes[lanes.length - 1]! });
@@ -77,7 +82,21 @@ export function timelineData(sim: Simulation): TimelineData {
           (sim.profile.idle === 'thermal' ? ' (thermal relaxation)' : " (the profile says idle: none)"),
       };
     });
+  const feeds: TimelineFeed[] = timed
+    ? sim.schedule.feeds.map((f) => {
+        const m = sim.schedule.items[f.measure]!;
+        const to = sim.schedule.items[f.to]!;
+        return {
+          from: m.end * scale,
+          fromLane: m.op.qubits[0]!,
+          to: to.start * scale,
+          toLane: to.op.qubits[0]!,
+          title: `bit ${bits[f.bit]}: measured on ${name(m.op.qubits[0]!)} (ends ${num(m.end)} ns) → step ${to.op.step + 1} ${operationName(to.op)} (starts ${num(to.start)} ns; latency ${formatDuration(f.latency)})`,
+        };
+      })
+    : [];
   return {
+    feeds,
     // a detuned qubit drifts about Z all the time: its lane says by how much
     lanes: Array.from({ length: reg.n }, (_, q) => {
       const detuning = sim.profile.qubits[q]!.detuning;

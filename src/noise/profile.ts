@@ -45,6 +45,8 @@ export interface NoiseProfile {
   readonly schedule: 'asap' | 'alap';
   /** Duration of a measurement, ns. */
   readonly measureDuration: number;
+  /** Classical latency (ns) from a measurement's end to the earliest start of a step conditioned on its bit. */
+  readonly measureLatency: number;
   /** True when every measure step starts all its qubits' measurements together (the `measure` entry's `simultaneous`). */
   readonly simultaneousMeasure: boolean;
   /** The coupling map, or null when the profile has no `couplings:` section (then nothing is checked). */
@@ -65,6 +67,7 @@ export function noiselessProfile(n: number): NoiseProfile {
     idle: 'none',
     schedule: 'asap',
     measureDuration: 0,
+    measureLatency: 0,
     simultaneousMeasure: false,
     couplings: null,
     reset: empty,
@@ -74,29 +77,53 @@ export function noiselessProfile(n: number): NoiseProfile {
 
 interface PartialGate {
   duration?: Loc<number>;
+  latency?: Loc<number>;
   thermal?: Loc<boolean>;
   split?: Loc<boolean>;
   simultaneous?: Loc<boolean>;
   kinds: NoiseKindsSpec;
+  off?: ReadonlySet<string>;
 }
 
 /**
  * Field-by-field merge of two gate entries, `over` winning; `error` and `depolarizing`
  * replace each other (the more specific or later one wins); `pauli` and `coherent` are one
- * field each, replaced whole.
+ * field each, replaced whole. A field `over` switches off
+ * (`none`) is dropped, and stays off through later merges until an entry sets it again.
  */
 export function mergeGateEntries(base: PartialGate, over: PartialGate): PartialGate {
   const kinds: NoiseKindsSpec = { ...base.kinds };
   if (over.kinds.error !== undefined) delete kinds.depolarizing;
   if (over.kinds.depolarizing !== undefined) delete kinds.error;
   Object.assign(kinds, stripUndefined(over.kinds));
+  const off = new Set([...(base.off ?? [])].filter((f) => !(f in over.kinds) && !(f === 'duration' && over.duration !== undefined)));
+  for (const f of over.off ?? []) {
+    off.add(f);
+    delete (kinds as Record<string, unknown>)[f];
+  }
+  const duration = off.has('duration') ? undefined : (over.duration ?? base.duration);
   return {
-    ...(over.duration ?? base.duration ? { duration: over.duration ?? base.duration } : {}),
+    ...(duration ? { duration } : {}),
+    ...(over.latency ?? base.latency ? { latency: over.latency ?? base.latency } : {}),
     ...(over.thermal ?? base.thermal ? { thermal: over.thermal ?? base.thermal } : {}),
     ...(over.split ?? base.split ? { split: over.split ?? base.split } : {}),
     ...(over.simultaneous ?? base.simultaneous ? { simultaneous: over.simultaneous ?? base.simultaneous } : {}),
     kinds,
+    ...(off.size > 0 ? { off } : {}),
   };
+}
+
+/** Merges a qubit entry over another field by field; fields `over` switches off are dropped and remembered. */
+function mergeQubitEntries(base: QubitEntrySpec, over: QubitEntrySpec): QubitEntrySpec {
+  const out: QubitEntrySpec = { ...base, ...stripUndefined(over) };
+  const off = new Set([...(base.off ?? [])].filter((f) => (over as Record<string, unknown>)[f] === undefined));
+  for (const f of over.off ?? []) {
+    off.add(f);
+    delete (out as Record<string, unknown>)[f];
+  }
+  if (off.size > 0) out.off = off;
+  else delete out.off;
+  return out;
 }
 
 function stripUndefined<T extends object>(o: T): Partial<T> {
@@ -108,35 +135,75 @@ function stripUndefined<T extends object>(o: T): Partial<T> {
 /** Tolerance on t2 ≤ 2·t1 (relative), so that t2 written as exactly 2·t1 passes. */
 export const T2_LIMIT_TOLERANCE = 1e-12;
 
+/** Options of profile resolution. */
+export interface ResolveOptions {
+  /**
+   * Placement: circuit qubit i sits on device qubit layout[i]. Device-file entries keyed by
+   * a qubit index are then read at the physical index (entries for other device qubits are
+   * skipped); inline and command-line keys keep the circuit's numbering.
+   */
+  readonly layout?: readonly number[];
+}
+
+/** The entries of one precedence level (the files, or the command line's overrides). */
+interface Layer {
+  qubitAll: QubitEntrySpec;
+  readonly qubitOne: QubitEntrySpec[];
+  gateAll: PartialGate;
+  readonly byName: Map<string, PartialGate>;
+  readonly byTuple: Map<string, PartialGate>;
+  measure: PartialGate;
+  reset: PartialGate;
+}
+
+function emptyLayer(n: number): Layer {
+  return {
+    qubitAll: {},
+    qubitOne: Array.from({ length: n }, () => ({})),
+    gateAll: { kinds: {} },
+    byName: new Map(),
+    byTuple: new Map(),
+    measure: { kinds: {} },
+    reset: { kinds: {} },
+  };
+}
+
 /**
  * Resolves profile specs (device first, then the circuit's inline noise, which wins per
  * field) against a circuit: qubit and gate keys to indices and names, precedence, and
- * the physical checks (t2 ≤ 2·t1).
+ * the physical checks (t2 ≤ 2·t1). A spec of source 'override' (the command line's
+ * `--set`) forms a level above all files: its `gates.cx` applies to every cx, even where a
+ * file has a more specific "cx 1 2" entry (all < name < tuple within each level).
  */
-export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, problems: ProblemList): NoiseProfile {
+export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, problems: ProblemList, options: ResolveOptions = {}): NoiseProfile {
   const reg = circuit.register;
   let name: string | null = null;
   let idle: 'thermal' | 'none' = 'thermal';
   let schedule: 'asap' | 'alap' = 'asap';
-  const qubitAll: QubitEntrySpec = {};
-  const qubitOne: QubitEntrySpec[] = Array.from({ length: reg.n }, () => ({}));
-  let gateAll: PartialGate = { kinds: {} };
-  const byName = new Map<string, PartialGate>();
-  const byTuple = new Map<string, PartialGate>();
-  let measure: PartialGate = { kinds: {} };
-  let reset: PartialGate = { kinds: {} };
+  const files = emptyLayer(reg.n);
+  const command = emptyLayer(reg.n);
+  const physical = options.layout !== undefined ? new Map(options.layout.map((p, i) => [String(p), i])) : undefined;
+  // A device key that is a whole number names a device qubit: with a layout, map it to the circuit qubit placed there.
+  const refOf = (spec: ProfileSpec, ref: string): string | null => {
+    if (physical === undefined || spec.source !== 'device' || !/^\d+$/.test(ref)) return ref;
+    const i = physical.get(String(Number(ref)));
+    return i === undefined ? null : String(i);
+  };
+
   let couplingMap: Map<string, { a: number; b: number; zz?: Loc<number> }> | null = null;
 
   for (const spec of specs) {
+    const layer = spec.source === 'override' ? command : files;
     if (spec.couplings !== undefined) {
       couplingMap ??= new Map();
       const seenHere = new Map<string, string>();
       for (const { key, keyAt, entry } of spec.couplings) {
         const where = `coupling '${key}'`;
-        if (entry.refs.some((r) => beyondRegister(spec, r, reg))) continue;
+        const refs = entry.refs.map((r) => refOf(spec, r));
+        if (refs.some((r) => r === null) || (physical === undefined && entry.refs.some((r) => beyondRegister(spec, r, reg)))) continue;
         const qs: number[] = [];
-        for (const r of entry.refs) {
-          const q = resolveQubit(r, reg);
+        for (const r of refs) {
+          const q = resolveQubit(r!, reg);
           if (typeof q !== 'number') problems.error(keyAt, 'bad-qubit', `${where}: ${q.error}`);
           else qs.push(q);
         }
@@ -163,25 +230,30 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
     if (spec.schedule) schedule = spec.schedule.value;
     for (const { key, keyAt, entry } of spec.qubits) {
       if (key === 'all') {
-        Object.assign(qubitAll, stripUndefined(entry));
+        layer.qubitAll = mergeQubitEntries(layer.qubitAll, entry);
         continue;
       }
-      if (beyondRegister(spec, key, reg)) continue;
-      const q = resolveQubit(key, reg);
+      const ref = refOf(spec, key);
+      if (ref === null || (physical === undefined && beyondRegister(spec, key, reg))) continue;
+      const q = resolveQubit(ref, reg);
       if (typeof q !== 'number') {
         problems.error(keyAt, 'bad-qubit', `qubit entry '${key}': ${q.error}`);
         continue;
       }
-      Object.assign(qubitOne[q]!, stripUndefined(entry));
+      layer.qubitOne[q] = mergeQubitEntries(layer.qubitOne[q]!, entry);
     }
     for (const { key, keyAt, entry } of spec.gates) {
       const where = `gate entry '${key}'`;
+      if (entry.latency !== undefined && key !== 'measure') {
+        problems.error(entry.latency.at, 'bad-latency', `${where}: 'latency' belongs to the 'measure' entry (the classical delay before a step conditioned on a measured bit)`);
+        continue;
+      }
       if (key === 'all') {
-        if (checkAllEntry(entry, problems)) gateAll = mergeGateEntries(gateAll, entry);
+        if (checkAllEntry(entry, problems)) layer.gateAll = mergeGateEntries(layer.gateAll, entry);
       } else if (key === 'measure') {
-        if (checkMeasureEntry(entry, where, problems)) measure = mergeGateEntries(measure, entry);
+        if (checkMeasureEntry(entry, where, problems)) layer.measure = mergeGateEntries(layer.measure, entry);
       } else if (key === 'reset') {
-        if (checkResetEntry(entry, where, problems)) reset = mergeGateEntries(reset, entry);
+        if (checkResetEntry(entry, where, problems)) layer.reset = mergeGateEntries(layer.reset, entry);
       } else {
         const parts = key.split(' ');
         const gate = GATE_ALIASES.get(parts[0]!) ?? parts[0]!;
@@ -211,18 +283,19 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
           continue;
         }
         if (parts.length === 1) {
-          byName.set(gate, mergeGateEntries(byName.get(gate) ?? { kinds: {} }, entry));
+          layer.byName.set(gate, mergeGateEntries(layer.byName.get(gate) ?? { kinds: {} }, entry));
           continue;
         }
-        const refs = parts.slice(1);
-        if (refs.some((r) => beyondRegister(spec, r, reg))) continue;
+        const refs = parts.slice(1).map((r) => refOf(spec, r));
+        if (refs.some((r) => r === null)) continue;
+        if (physical === undefined && parts.slice(1).some((r) => beyondRegister(spec, r, reg))) continue;
         if (refs.length !== arity) {
           problems.error(keyAt, 'wrong-arity', `${where}: ${gate} acts on ${arity} qubit${arity === 1 ? '' : 's'} but the key names ${refs.length}`);
           continue;
         }
         const qs: number[] = [];
         for (const r of refs) {
-          const q = resolveQubit(r, reg);
+          const q = resolveQubit(r!, reg);
           if (typeof q !== 'number') problems.error(keyAt, 'bad-qubit', `${where}: ${q.error}`);
           else qs.push(q);
         }
@@ -232,15 +305,17 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
           continue;
         }
         const tk = tupleKey(gate, qs);
-        byTuple.set(tk, mergeGateEntries(byTuple.get(tk) ?? { kinds: {} }, entry));
+        layer.byTuple.set(tk, mergeGateEntries(layer.byTuple.get(tk) ?? { kinds: {} }, entry));
       }
     }
   }
-  if (gateAll.kinds.channel !== undefined) checkChannelRef(gateAll.kinds, 1, circuit, "gate entry 'all'", problems);
-  if (reset.kinds.channel !== undefined) checkChannelRef(reset.kinds, 1, circuit, "gate entry 'reset'", problems);
+  for (const layer of [files, command]) {
+    if (layer.gateAll.kinds.channel !== undefined) checkChannelRef(layer.gateAll.kinds, 1, circuit, "gate entry 'all'", problems);
+    if (layer.reset.kinds.channel !== undefined) checkChannelRef(layer.reset.kinds, 1, circuit, "gate entry 'reset'", problems);
+  }
 
-  const qubits: QubitNoise[] = qubitOne.map((own, q) => {
-    const e: QubitEntrySpec = { ...qubitAll, ...stripUndefined(own) };
+  const qubits: QubitNoise[] = files.qubitOne.map((own, q) => {
+    const e = mergeQubitEntries(mergeQubitEntries(mergeQubitEntries(files.qubitAll, own), command.qubitAll), command.qubitOne[q]!);
     const t1 = e.t1?.value ?? Infinity;
     const t2 = e.t2?.value ?? (Number.isFinite(t1) ? 2 * t1 : Infinity);
     if (e.t2 !== undefined && t2 > 2 * t1 * (1 + T2_LIMIT_TOLERANCE)) {
@@ -272,20 +347,26 @@ export function resolveProfile(specs: readonly ProfileSpec[], circuit: Circuit, 
     qubits,
     idle,
     schedule,
-    measureDuration: measure.duration?.value ?? 0,
-    simultaneousMeasure: measure.simultaneous?.value ?? false,
+    measureDuration: mergeGateEntries(files.measure, command.measure).duration?.value ?? 0,
+    measureLatency: mergeGateEntries(files.measure, command.measure).latency?.value ?? 0,
+    simultaneousMeasure: mergeGateEntries(files.measure, command.measure).simultaneous?.value ?? false,
     couplings: couplingMap === null ? null : [...couplingMap.values()].sort((x, y) => x.a - y.a || x.b - y.b).map((c) => ({ a: c.a, b: c.b, zz: c.zz?.value ?? 0 })),
-    reset: { ...finish(reset, false, false), thermal: false },
+    reset: { ...finish(mergeGateEntries(files.reset, command.reset), false, false), thermal: false },
     gateEntry(gate, qs) {
       const tk = tupleKey(gate, qs);
       let e = cache.get(tk);
       if (e === undefined) {
-        let m = gateAll;
-        const named = byName.get(gate);
-        if (named) m = mergeGateEntries(m, named);
-        const tuple = byTuple.get(tk);
-        if (tuple) m = mergeGateEntries(m, tuple);
-        e = finish(m, true, named === undefined && tuple === undefined);
+        let m: PartialGate = { kinds: {} };
+        let fromAll = true;
+        for (const layer of [files, command]) {
+          m = mergeGateEntries(m, layer.gateAll);
+          const named = layer.byName.get(gate);
+          if (named) m = mergeGateEntries(m, named);
+          const tuple = layer.byTuple.get(tk);
+          if (tuple) m = mergeGateEntries(m, tuple);
+          fromAll &&= named === undefined && tuple === undefined;
+        }
+        e = finish(m, true, fromAll);
         cache.set(tk, e);
       }
       return e;
@@ -308,7 +389,7 @@ function tupleKey(gate: string, qubits: readonly number[]): string {
 function checkMeasureEntry(e: GateEntrySpec, where: string, problems: ProblemList): boolean {
   const extra = [e.thermal?.at, e.split?.at, ...Object.values(e.kinds).map((k) => k?.at)].filter((x): x is SourcePosition => x !== undefined);
   if (extra.length > 0) {
-    problems.error(extra[0]!, 'bad-measure-entry', `${where}: a measurement takes only 'duration' and 'simultaneous'; its errors are the qubits' 'readout' probabilities`);
+    problems.error(extra[0]!, 'bad-measure-entry', `${where}: a measurement takes only 'duration', 'latency' and 'simultaneous'; its errors are the qubits' 'readout' probabilities`);
     return false;
   }
   return true;

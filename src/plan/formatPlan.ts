@@ -4,7 +4,7 @@
  * what they are), plus a JSON form with the same content.
  */
 import type { Origin } from '../program/program.js';
-import type { Plan } from './plan.js';
+import type { Plan, PlannedSegment } from './plan.js';
 
 /** Short name of an instruction origin: 'step 3 cx', 'step 3 depolarizing', 'idle 120 ns'. */
 function originName(o: Origin | undefined, index: number): string {
@@ -53,5 +53,39 @@ export function planToJson(plan: Plan, origins: readonly Origin[]): object {
       instructions: s.sources,
       fuses: s.sources.map((i) => origins[i] ?? null),
     })),
+  };
+}
+
+/** Which branches a record-mode segment acts on, in words: 'every branch', 'where a=1, b=0', 'where not (a=1)'. */
+export function segmentSelection(seg: PlannedSegment, bits: readonly string[]): string {
+  if (seg.kind === 'measure') return 'every branch';
+  if (seg.when === undefined) return 'every branch';
+  const terms = seg.when.condition.map((t) => `${bits[t.bit] ?? t.bit}=${t.value}`).join(', ');
+  return seg.when.holds ? `where ${terms}` : `where not (${terms})`;
+}
+
+/** A record-mode plan as text: per segment, a measurement that splits the branches, or the plan of a run of instructions and the branches it acts on. */
+export function formatRecordPlan(segments: readonly PlannedSegment[], bits: readonly string[]): string {
+  const out: string[] = [`record mode: ${segments.length} segment${segments.length === 1 ? '' : 's'}, each plan applied to every branch it selects`];
+  segments.forEach((seg, i) => {
+    if (seg.kind === 'measure') out.push(`segment ${i + 1}: measure qubit ${seg.qubit} into bit ${bits[seg.bit] ?? seg.bit} (every branch splits by outcome and recorded value)`);
+    else out.push(`segment ${i + 1}: ${segmentSelection(seg, bits)}`, formatPlan(seg.plan, seg.origins).trimEnd());
+  });
+  return out.join('\n') + '\n';
+}
+
+/** A record-mode plan as plain data: per segment its kind, selection and plan. */
+export function recordPlanToJson(segments: readonly PlannedSegment[], bits: readonly string[]): object {
+  return {
+    bits,
+    segments: segments.map((seg) =>
+      seg.kind === 'measure'
+        ? { kind: 'measure', qubit: seg.qubit, bit: bits[seg.bit] ?? seg.bit }
+        : {
+            kind: 'apply',
+            when: seg.when === undefined ? null : { condition: Object.fromEntries(seg.when.condition.map((t) => [bits[t.bit] ?? String(t.bit), t.value])), holds: seg.when.holds },
+            plan: planToJson(seg.plan, seg.origins),
+          },
+    ),
   };
 }

@@ -1,3 +1,5 @@
+import type { RecordCondition } from '../engine/recordProgram.js';
+import type { Origin } from '../program/program.js';
 /**
  * The plan: what the fast engine runs for a noisy instruction list — a list of kernel calls,
  * each standing for one or more instructions fused into a single pass over ρ.
@@ -36,3 +38,8 @@ export interface Plan {
   readonly instructionCount: number;
   readonly steps: readonly PlanStep[];
 }
+
+/** One segment of a record-mode plan: a measurement, or a run of instructions with its plan on the branches it selects. */
+export type PlannedSegment =
+  | { readonly kind: 'measure'; readonly qubit: number; readonly bit: number }
+  | { readonly kind: 'apply'; readonly when?: { readonly condition: RecordCondition; readonly holds: boolean }; readonly plan: Plan; readonly origins: readonly Origin[] };

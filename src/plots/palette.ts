@@ -1,5 +1,7 @@
+import { OKABE_ITO } from './theme.js';
+
 /**
- * The colours of every fray picture, stated once. Hues come from the Okabe–Ito palette
+ * The roles of the run report's colours. Hues are the Okabe–Ito colours of theme.ts
  * (M. Okabe and K. Ito, "Color Universal Design", 2008), chosen so neighbours also differ in
  * lightness and stay apart in grey print; every mark also carries a text label or a shape
  * (hollow vs filled bars, thin idle bands vs full boxes), so no meaning rests on colour alone.
@@ -13,11 +15,11 @@ export const RULE = '#b9b4aa';
 
 /** Fill of a scheduled operation by kind (timeline boxes). */
 export const OPERATION_FILL = {
-  'gate, 1 qubit': '#56B4E9',
-  'gate, 2+ qubits': '#0072B2',
-  measure: '#D55E00',
-  reset: '#009E73',
-  'noise step': '#CC79A7',
+  'gate, 1 qubit': OKABE_ITO.skyBlue,
+  'gate, 2+ qubits': OKABE_ITO.blue,
+  measure: OKABE_ITO.vermillion,
+  reset: OKABE_ITO.green,
+  'noise step': OKABE_ITO.purple,
 } as const;
 
 /** A kind of timeline box (a key of OPERATION_FILL). */
@@ -39,7 +41,7 @@ export const IDLE_RAMP = ['#fbf1d6', '#e8a33d', '#8a3b12'] as const;
  * The series of a comparison chart: ideal runs are drawn hollow (white fill, ink outline),
  * noisy ones filled light, measured ones filled dark — three steps of lightness.
  */
-export const SERIES_FILL = { ideal: '#ffffff', noisy: '#56B4E9', measured: '#0072B2' } as const;
+export const SERIES_FILL = { ideal: '#ffffff', noisy: OKABE_ITO.skyBlue, measured: OKABE_ITO.blue } as const;
 
 /** A series of a comparison chart (a key of SERIES_FILL). */
 export type Series = keyof typeof SERIES_FILL;

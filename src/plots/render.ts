@@ -1,13 +1,26 @@
 /**
- * The one code path from a picture to SVG: a vega-lite spec is compiled to vega and
- * rendered headless by vega in Node (no browser, no canvas). Every mark that has a
- * `description` gets it as an SVG <title>, so hovering a box shows its exact figures in
- * any browser without scripts.
+ * The one place a picture is made: a vega-lite spec (data plus a declarative chart) compiled
+ * to vega and rendered to SVG text by vega's headless view — no browser, no canvas. Every
+ * command's --plot and every HTML report go through here. vega and vega-lite load on the
+ * first call, so importing fray does not load them. Every mark that has a `description`
+ * gets it as an SVG <title>, so hovering shows its exact figures in any browser without
+ * scripts; ids are made unique per picture so several pictures can share one page.
  */
 import type { TopLevelSpec } from 'vega-lite';
 import { FONT, INK, RULE } from './palette.js';
 
-/** The look shared by every fray picture (fonts, axis and legend ink). */
+/** A vega logger that says nothing: the specs are ours, and a CLI's stderr is the user's. */
+const SILENT = {
+  level(): number {
+    return 0;
+  },
+  error(): void {},
+  warn(): void {},
+  info(): void {},
+  debug(): void {},
+};
+
+/** The look every picture starts from (a spec's own `config` wins key by key). */
 const CONFIG = {
   font: FONT,
   background: '#ffffff',
@@ -18,11 +31,10 @@ const CONFIG = {
 
 /** Renders a vega-lite spec to a standalone SVG string, with marks' descriptions as hover titles. */
 export async function renderSvg(spec: TopLevelSpec): Promise<string> {
-  // loaded on first use: the library is large, and only pictures need it
-  const [vega, { compile }] = await Promise.all([import('vega'), import('vega-lite')]);
-  const compiled = compile({ ...spec, config: { ...CONFIG, ...(spec.config ?? {}) } } as TopLevelSpec).spec;
-  // only errors would be worth saying, and they throw: a CLI's stderr is the user's
-  const view = new vega.View(vega.parse(compiled), { renderer: 'none', logLevel: vega.None });
+  const [vega, vl] = await Promise.all([import('vega'), import('vega-lite')]);
+  const withConfig = { ...spec, config: { ...CONFIG, ...(spec.config ?? {}) } } as TopLevelSpec;
+  const compiled = vl.compile(withConfig, { logger: SILENT as unknown as NonNullable<Parameters<typeof vl.compile>[1]>['logger'] }).spec;
+  const view = new vega.View(vega.parse(compiled), { renderer: 'none', logLevel: vega.Error });
   try {
     return uniqueIds(descriptionsAsTitles(await view.toSVG()));
   } finally {

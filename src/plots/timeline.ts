@@ -2,7 +2,8 @@
  * The schedule as a timeline: one lane per qubit (qubit 0 on top), one box per operation
  * on each qubit it acts on (a multi-qubit operation's boxes joined by a line), idle
  * windows as thin bands shaded by their cost, barriers as dashed ticks, the circuit's end
- * as a dashed line. Times arrive in display units (ns or µs, named by `axisTitle`).
+ * as a dashed line; in record mode a conditioned step's label ends in '?' and a dotted line
+ * runs from each measurement to the steps its bit conditions. Times arrive in display units (ns or µs, named by `axisTitle`).
  */
 import type { TopLevelSpec } from 'vega-lite';
 import { IDLE_RAMP, INK, OPERATION_FILL, OPERATION_TEXT, RULE, type OperationKind } from './palette.js';
@@ -16,6 +17,17 @@ export interface TimelineBox {
   /** Short text inside the box when it fits (gate name, M, R, N). */
   readonly label: string;
   /** Hover text with the exact figures. */
+  readonly title: string;
+  /** A step that runs only when record bits read given values (its label ends in '?'). */
+  readonly conditional?: boolean;
+}
+
+/** A classical dependency: a measurement's bit, from its end on one lane to the start of a conditioned step on another. */
+export interface TimelineFeed {
+  readonly from: number;
+  readonly fromLane: number;
+  readonly to: number;
+  readonly toLane: number;
   readonly title: string;
 }
 
@@ -45,6 +57,8 @@ export interface TimelineData {
   readonly boxes: readonly TimelineBox[];
   readonly idle: readonly TimelineIdle[];
   readonly links: readonly TimelineLink[];
+  /** Classical dependencies of record mode (empty otherwise). */
+  readonly feeds: readonly TimelineFeed[];
   /** Barriers: a dashed tick on each of their lanes. */
   readonly barriers: readonly { readonly lane: number; readonly at: number }[];
   /** Where the circuit ends, and how that is written. */
@@ -80,8 +94,9 @@ export function timelineSpec(data: TimelineData): TopLevelSpec {
   const minLen = MIN_BOX_FRACTION * span;
   const boxes = data.boxes.map((b) => {
     const end = Math.max(b.end, b.start + minLen);
-    const fits = px(end - b.start) >= b.label.length * CHAR_PX + 6;
-    return { ...b, drawEnd: end, mid: (b.start + end) / 2, y0: b.lane - BOX_HALF, y1: b.lane + BOX_HALF, text: fits ? b.label : '', ink: OPERATION_TEXT[b.kind] };
+    const label = b.conditional === true ? `${b.label}?` : b.label;
+    const fits = px(end - b.start) >= label.length * CHAR_PX + 6;
+    return { ...b, drawEnd: end, mid: (b.start + end) / 2, y0: b.lane - BOX_HALF, y1: b.lane + BOX_HALF, text: fits ? label : '', ink: OPERATION_TEXT[b.kind] };
   });
   const idle = data.idle.map((w) => ({
     ...w,
@@ -148,6 +163,12 @@ export function timelineSpec(data: TimelineData): TopLevelSpec {
         data: { values: data.links },
         mark: { type: 'rule', stroke: INK, strokeWidth: 1.6 },
         encoding: { x: { ...x, field: 'at' }, y: { ...y, field: 'from' }, y2: { field: 'to' } },
+      },
+      {
+        name: 'feeds',
+        data: { values: data.feeds.map((f) => ({ ...f })) },
+        mark: { type: 'rule', stroke: INK, strokeWidth: 1.3, strokeDash: [2, 2] },
+        encoding: { x: { ...x, field: 'from' }, x2: { field: 'to' }, y: { ...y, field: 'fromLane' }, y2: { field: 'toLane' }, description: { field: 'title' } },
       },
       {
         name: 'boxes',

@@ -1,5 +1,6 @@
-import type { Circuit, NoiseOverride, Operation } from '../circuit/circuit.js';
-import type { Instruction } from '../engine/instruction.js';
+import type { Circuit, Condition, NoiseOverride, Operation } from '../circuit/circuit.js';
+import type { Instruction, Origin } from '../engine/instruction.js';
+import type { RecordInstruction, RecordProgram } from '../engine/recordProgram.js';
 import { misplacedZz, plainKinds, type NoiseKindsSpec } from '../format/noiseKindsSpec.js';
 import { ProblemList, type SourcePosition } from '../format/problem.js';
 import { CustomChannelError, ErrorSolveError, gateNoise, idleChannel, type QubitDecay } from '../noise/gateNoise.js';
@@ -8,17 +9,13 @@ import type { NoiseProfile } from '../noise/profile.js';
 import type { IdleWindow, Schedule, TimedOperation } from '../schedule/schedule.js';
 import { buildTimeline } from '../schedule/timeline.js';
 
-/** Where a noisy instruction comes from: the step (0-based; −1 for idle windows) and what it is. */
-export interface Origin {
-  readonly step: number;
-  /** e.g. 'cx', 'thermal during cx', 'idle 120 ns', 'drift 40 ns', 'coherent', 'depolarizing', 'reset'. */
-  readonly what: string;
-}
+export type { Origin } from '../engine/instruction.js';
 
 /**
  * A scheduled circuit with its noise, as instruction lists for the engine: the noisy run
  * (every gate, channel and idle window, in an order consistent with each qubit's
- * timeline), and the ideal run (unitaries and resets only).
+ * timeline), and the ideal run (unitaries and resets only). In record mode (a circuit with
+ * `into`) both runs are in `record` instead, and `noisy`, `origins` and `ideal` are empty.
  */
 export interface Program {
   readonly n: number;
@@ -26,6 +23,8 @@ export interface Program {
   /** origins[i] explains noisy[i]. */
   readonly origins: readonly Origin[];
   readonly ideal: readonly Instruction[];
+  /** The record-mode program (null for a version-1 circuit). */
+  readonly record: RecordProgram | null;
 }
 
 /** True when the profile has an always-on drift term (a detuning, or a zz strength on a coupled pair). */
@@ -44,12 +43,35 @@ export function hasDrift(profile: NoiseProfile): boolean {
  * is a semigroup, and channels on disjoint qubits commute), so the list is emitted in program order,
  * each operation preceded by the idle windows that end at its start on its own qubits: the same
  * evolution, and exactly version 1's instruction list (its outputs stay bit-for-bit the same).
+ *
+ * Record mode: a mid-circuit measurement is an operation of the timeline like any other (an
+ * instrument on its own qubit, applied whole at its start, then relaxation for its duration);
+ * a conditioned step acts where its condition holds and relaxes where it fails. Program order
+ * is consistent with the timeline for the record too: a bit's reads and writes are in program
+ * order and start in that order (src/schedule/schedule.ts), and the schedule never depends on outcomes.
  */
 export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: Schedule, problems: ProblemList): Program {
   const n = circuit.register.n;
   const noisy: Instruction[] = [];
   const origins: Origin[] = [];
   const ideal: Instruction[] = [];
+  const recordMode = circuit.bits !== null;
+  const recNoisy: RecordInstruction[] = [];
+  const recIdeal: RecordInstruction[] = [];
+  // The condition of the operation being emitted (record mode) and which side of it.
+  let when: { condition: Condition; holds: boolean } | undefined;
+  const selection = () => (when === undefined ? {} : { when: { condition: when.condition.terms, holds: when.holds } });
+  const pushNoisy = (instruction: Instruction, origin: Origin): void => {
+    if (recordMode) recNoisy.push({ kind: 'apply', instruction, origin, ...selection() });
+    else {
+      noisy.push(instruction);
+      origins.push(origin);
+    }
+  };
+  const pushIdeal = (instruction: Instruction, origin: Origin): void => {
+    if (recordMode) recIdeal.push({ kind: 'apply', instruction, origin, ...selection() });
+    else ideal.push(instruction);
+  };
   const decay = (q: number): QubitDecay => profile.qubits[q]!;
   const channels = circuit.channels;
   const seen = new Set<string>();
@@ -64,8 +86,12 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
     if (profile.idle !== 'thermal') return;
     const ch = idleChannel(decay(w.qubit), w.end - w.start);
     if (ch === undefined) return;
-    noisy.push({ op: 'channel', qubits: [w.qubit], kraus: ch.kraus });
-    origins.push({ step: -1, what: `idle ${Number((w.end - w.start).toPrecision(6))} ns` });
+    pushNoisy({ op: 'channel', qubits: [w.qubit], kraus: ch.kraus }, { step: -1, what: `idle ${Number((w.end - w.start).toPrecision(6))} ns` });
+  };
+  /** Thermal relaxation of qubit q for `time` ns during step `step` (a measurement, or a step whose condition fails). */
+  const emitThermal = (step: number, q: number, time: number, what: string): void => {
+    const ch = idleChannel(decay(q), time);
+    if (ch !== undefined) pushNoisy({ op: 'channel', qubits: [q], kraus: ch.kraus }, { step, what });
   };
   const emitNoise = (
     op: Operation,
@@ -94,9 +120,9 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
       if (gn.warning !== undefined) warnOnce(kinds.error?.at ?? op.at, 'error-below-coherence-limit', `${label}: ${gn.warning}`);
       for (const c of gn.channels) {
         const on = c.targets.map((t) => qubits[t]!);
-        if (c.source === 'coherent') noisy.push({ op: 'unitary', qubits: on, matrix: c.kraus[0]! });
-        else noisy.push({ op: 'channel', qubits: on, kraus: c.kraus });
-        origins.push({ step: op.step, what: c.source === 'thermal' ? `thermal during ${label}` : c.source });
+        const origin = { step: op.step, what: c.source === 'thermal' ? `thermal during ${label}` : c.source };
+        if (c.source === 'coherent') pushNoisy({ op: 'unitary', qubits: on, matrix: c.kraus[0]! }, origin);
+        else pushNoisy({ op: 'channel', qubits: on, kraus: c.kraus }, origin);
       }
     } catch (e) {
       if (e instanceof ErrorSolveError) {
@@ -112,33 +138,50 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
   const emitOperation = (item: TimedOperation): void => {
     const op = item.op;
     const stepName = `step ${op.step + 1}`;
+    const condition = op.kind === 'gate' || op.kind === 'reset' || op.kind === 'channel' ? op.condition : undefined;
+    when = condition === undefined ? undefined : { condition, holds: true };
     switch (op.kind) {
       case 'gate': {
         const entry = profile.gateEntry(op.name, op.qubits);
         const label = `${stepName} (${op.name} on ${op.qubits.join(', ')})`;
-        noisy.push({ op: 'unitary', qubits: op.qubits, matrix: op.unitary });
-        origins.push({ step: op.step, what: op.name });
-        ideal.push({ op: 'unitary', qubits: op.qubits, matrix: op.unitary });
+        pushNoisy({ op: 'unitary', qubits: op.qubits, matrix: op.unitary }, { step: op.step, what: op.name });
+        pushIdeal({ op: 'unitary', qubits: op.qubits, matrix: op.unitary }, { step: op.step, what: op.name });
         emitNoise(op, label, op.qubits.length, op.qubits, item.end - item.start, entry.thermal, kindsOf(op.noise, entry.kinds));
         break;
       }
       case 'reset': {
         const q = op.qubits[0]!;
-        noisy.push({ op: 'reset', qubit: q });
-        origins.push({ step: op.step, what: 'reset' });
-        ideal.push({ op: 'reset', qubit: q });
+        pushNoisy({ op: 'reset', qubit: q }, { step: op.step, what: 'reset' });
+        pushIdeal({ op: 'reset', qubit: q }, { step: op.step, what: 'reset' });
         emitNoise(op, `${stepName} (reset ${q})`, 1, op.qubits, 0, false, kindsOf(op.noise, profile.reset.kinds));
         break;
       }
       case 'channel':
         emitNoise(op, `${stepName} (noise on ${op.qubits.join(', ')})`, op.qubits.length, op.qubits, 0, false, op.noise.kinds);
         break;
-      case 'measure':
+      case 'measure': {
+        if (op.bit === undefined) break; // terminal: the results stage reads it off the final state
+        const q = op.qubits[0]!;
+        const origin = { step: op.step, what: `measure ${q} into bit ${op.bit}` };
+        const r = profile.qubits[q]!.readout;
+        recNoisy.push({ kind: 'measure', qubit: q, bit: op.bit, zeroAsOne: r.zeroAsOne, oneAsZero: r.oneAsZero, origin });
+        recIdeal.push({ kind: 'measure', qubit: q, bit: op.bit, zeroAsOne: 0, oneAsZero: 0, origin });
+        // the measured qubit relaxes for the measurement's duration, whatever the idle mode
+        emitThermal(op.step, q, item.end - item.start, `thermal during ${stepName} (measure ${q})`);
+        break;
+      }
       case 'idle':
       case 'barrier':
         break;
     }
+    if (condition !== undefined && profile.idle === 'thermal') {
+      // where the condition fails, the step's time is idle time on each of its qubits
+      when = { condition, holds: false };
+      for (const q of op.qubits) emitThermal(op.step, q, item.end - item.start, `idle during ${stepName} (condition fails)`);
+    }
+    when = undefined;
   };
+  const recordProgram = (): RecordProgram | null => (recordMode ? { bits: circuit.bits!.length, noisy: recNoisy, ideal: recIdeal } : null);
 
   if (!hasDrift(profile)) {
     for (const item of schedule.items) {
@@ -146,7 +189,7 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
       emitOperation(item);
     }
     for (const w of schedule.trailingIdle) emitIdle(w);
-    return { n, noisy, origins, ideal };
+    return { n, noisy, origins, ideal, record: recordProgram() };
   }
 
   // The event timeline. The drift terms of one segment commute with each other, so their order is
@@ -172,15 +215,13 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
       const live = pairs.filter((c) => active.has(c.a) && active.has(c.b)).map((c) => ({ c, r: rank(c) }));
       for (const r of [0, 1, 2]) {
         for (const { c } of live.filter((x) => x.r === r)) {
-          noisy.push({ op: 'unitary', qubits: [c.a, c.b], matrix: zzRotation(zzAngle(c.zz, ev.segment)) });
-          origins.push({ step: -1, what });
+          pushNoisy({ op: 'unitary', qubits: [c.a, c.b], matrix: zzRotation(zzAngle(c.zz, ev.segment)) }, { step: -1, what });
         }
       }
       for (const q of ev.driftQubits) {
         const delta = profile.qubits[q]!.detuning;
         if (delta === 0) continue;
-        noisy.push({ op: 'unitary', qubits: [q], matrix: zRotation(detuningAngle(delta, ev.segment)) });
-        origins.push({ step: -1, what });
+        pushNoisy({ op: 'unitary', qubits: [q], matrix: zRotation(detuningAngle(delta, ev.segment)) }, { step: -1, what });
       }
       for (const q of ev.idleQubits) emitIdle({ qubit: q, start: ev.time - ev.segment, end: ev.time });
     }
@@ -193,5 +234,5 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
       }
     }
   }
-  return { n, noisy, origins, ideal };
+  return { n, noisy, origins, ideal, record: recordProgram() };
 }

@@ -87,6 +87,6 @@ export function computeFigures(rho: DensityMatrix, ideal: IdealState, input: Rep
 export const DEFAULT_SEED = 1;
 
 /** Negative rounding residue (≈ −1e-17) shown as 0. */
-function clean(x: number): number {
+export function clean(x: number): number {
   return x < 0 && x > -LISTED_OUTCOME_THRESHOLD ? 0 : x;
 }

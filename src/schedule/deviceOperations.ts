@@ -3,7 +3,7 @@
  * says `split: true` is replaced by its parts, each a gate application of its own (scheduled,
  * and noisy under its own profile entry); a part that is itself a split composite is replaced
  * in turn. Every part keeps the step (index, position, label) of the application it came from,
- * and a step's own `noise:` applies to each part. Without split entries the list is returned as is.
+ * and a step's own `noise:` and `if:` apply to each part. Without split entries the list is returned as is.
  */
 import type { GateOperation, GatePart, Operation } from '../circuit/circuit.js';
 import type { NoiseProfile } from '../noise/profile.js';
@@ -37,6 +37,7 @@ function asOperation(parent: GateOperation, part: GatePart): GateOperation {
     qubits: part.qubits,
     unitary: part.unitary,
     ...(parent.noise !== undefined ? { noise: parent.noise } : {}),
+    ...(parent.condition !== undefined ? { condition: parent.condition } : {}),
     ...(part.parts !== undefined ? { parts: part.parts } : {}),
   };
 }

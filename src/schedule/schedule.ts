@@ -8,9 +8,15 @@ import type { Operation } from '../circuit/circuit.js';
  * ALAP: the mirror image — ASAP on the reversed program, times reflected t → T − t —
  * so every application runs as late as the later steps allow, with the same total T.
  *
+ * Classical dependencies (record mode): a step with `if` starts no earlier than the end of
+ * the last earlier measurement that wrote one of its bits plus the profile's measurement
+ * latency; a measurement writing bit b starts no earlier than the start of every earlier
+ * step that reads or writes b. Each is a constraint start_i ≥ start_j + c with j before i
+ * in program order; ALAP mirrors them (see mirrorConstraints).
+ *
  * Idle windows: the gaps on a qubit between t = 0, its busy operations (gates, resets,
- * standalone noise, which take zero time) and its measurement start (or T when it is
- * never measured). `idle` steps and barriers are not busy: their time is idle time.
+ * standalone noise, mid-circuit measurements) and its terminal measurement's start (or T
+ * when it has none). `idle` steps and barriers are not busy: their time is idle time.
  */
 
 /** One application placed in time: [start, end] in ns. */
@@ -29,6 +35,16 @@ export interface IdleWindow {
   readonly end: number;
 }
 
+/** Measurement `measure` (index into items) writes a bit that step `to` (index into items) reads: `to` starts ≥ its end + latency. */
+export interface Feed {
+  readonly measure: number;
+  readonly to: number;
+  /** The record bit (index into Circuit.bits) that carries the dependency. */
+  readonly bit: number;
+  /** Classical latency in ns (the profile's measure latency). */
+  readonly latency: number;
+}
+
 /** A scheduled circuit: applications in program order, idle windows, total duration (ns). */
 export interface Schedule {
   readonly policy: 'asap' | 'alap';
@@ -39,12 +55,22 @@ export interface Schedule {
   readonly idleWindows: readonly IdleWindow[];
   /** Latest end time of any application, measurement included. */
   readonly duration: number;
-  /** Measurement start per qubit (null when never measured). */
+  /** Terminal measurement start per qubit (null when never measured terminally). */
   readonly measureStart: readonly (number | null)[];
+  /** Which measurement feeds which conditioned step (record mode; empty otherwise). */
+  readonly feeds: readonly Feed[];
+}
+
+/** start_i ≥ start_j + offset (ns) for an operation j that comes before i in the order scheduled. */
+interface Constraint {
+  readonly after: number;
+  readonly offset: number;
 }
 
 /** Options of scheduleOperations. */
 export interface ScheduleOptions {
+  /** Classical latency (ns) from a measurement's end to the earliest start of a step conditioned on its bit (record mode; default 0). */
+  readonly latency?: number;
   /**
    * Simultaneous readout: every measure step starts all its qubits' measurements together, as if
    * a barrier over them came first (default false: each qubit is measured as soon as it is free).
@@ -61,12 +87,20 @@ export function scheduleOperations(
   options: ScheduleOptions = {},
 ): Schedule {
   const timed = options.simultaneousMeasure === true ? withMeasureBarriers(ops) : ops;
-  const times = policy === 'asap' ? asap(timed, n, durationOf) : alap(timed, n, durationOf);
-  const schedule = withIdleWindows(timed, n, times.start, times.end, times.total, policy);
+  const dur = timed.map((op) => (op.kind === 'barrier' ? 0 : durationOf(op)));
+  const { constraints, feeds } = classicalConstraints(timed, dur, options.latency ?? 0);
+  const times = policy === 'asap' ? asap(timed, n, dur, constraints) : alap(timed, n, dur, constraints);
+  const schedule = { ...withIdleWindows(timed, n, times.start, times.end, times.total, policy), feeds };
   if (timed === ops) return schedule;
-  // the barriers placed for simultaneous readout are not steps of the circuit
+  // the barriers placed for simultaneous readout are not steps of the circuit; feeds follow the items they name
   const own = new Set(ops);
-  return { ...schedule, items: schedule.items.filter((it) => own.has(it.op)) };
+  const index = new Map<number, number>();
+  const items = schedule.items.filter((it, i) => {
+    if (!own.has(it.op)) return false;
+    index.set(i, index.size);
+    return true;
+  });
+  return { ...schedule, items, feeds: feeds.map((f) => ({ ...f, measure: index.get(f.measure)!, to: index.get(f.to)! })) };
 }
 
 /** `ops` with a barrier over each measure step's qubits right before its first measurement. */
@@ -82,7 +116,33 @@ function withMeasureBarriers(ops: readonly Operation[]): Operation[] {
   return out;
 }
 
-function asap(ops: readonly Operation[], n: number, durationOf: (op: Operation) => number) {
+/** The classical dependencies of `ops` as constraints per operation (indices in program order), and the feeds among them. */
+function classicalConstraints(ops: readonly Operation[], dur: readonly number[], latency: number): { constraints: Constraint[][]; feeds: Feed[] } {
+  const constraints: Constraint[][] = ops.map(() => []);
+  const feeds: Feed[] = [];
+  const lastWriter = new Map<number, number>();
+  // Steps that read or wrote each bit since (and including) its last write: earlier ones
+  // start no later than that write, which the next write already follows.
+  const accessors = new Map<number, number[]>();
+  ops.forEach((op, i) => {
+    const reads = op.kind === 'gate' || op.kind === 'reset' || op.kind === 'channel' ? (op.condition?.terms.map((t) => t.bit) ?? []) : [];
+    for (const b of reads) {
+      const w = lastWriter.get(b);
+      if (w === undefined) continue; // the format stage refuses a read before any write
+      constraints[i]!.push({ after: w, offset: dur[w]! + latency });
+      feeds.push({ measure: w, to: i, bit: b, latency });
+    }
+    if (op.kind === 'measure' && op.bit !== undefined) {
+      for (const j of accessors.get(op.bit) ?? []) constraints[i]!.push({ after: j, offset: 0 });
+      lastWriter.set(op.bit, i);
+      accessors.set(op.bit, [i]);
+    }
+    for (const b of reads) accessors.get(b)?.push(i);
+  });
+  return { constraints, feeds };
+}
+
+function asap(ops: readonly Operation[], n: number, dur: readonly number[], constraints: readonly (readonly Constraint[])[]) {
   const free = new Float64Array(n);
   const start = new Float64Array(ops.length);
   const end = new Float64Array(ops.length);
@@ -90,7 +150,8 @@ function asap(ops: readonly Operation[], n: number, durationOf: (op: Operation) 
   ops.forEach((op, i) => {
     let t = 0;
     for (const q of op.qubits) t = Math.max(t, free[q]!);
-    const d = op.kind === 'barrier' ? 0 : durationOf(op);
+    for (const c of constraints[i]!) t = Math.max(t, start[c.after]! + c.offset);
+    const d = dur[i]!;
     start[i] = t;
     end[i] = t + d;
     for (const q of op.qubits) free[q] = t + d;
@@ -99,9 +160,23 @@ function asap(ops: readonly Operation[], n: number, durationOf: (op: Operation) 
   return { start, end, total };
 }
 
-function alap(ops: readonly Operation[], n: number, durationOf: (op: Operation) => number) {
+/**
+ * The constraints of the reversed program whose ASAP schedule, reflected t → T − t, is the
+ * mirror image: start_i ≥ start_j + c becomes, with s' = T − start − d (the reflected start),
+ * s'_j ≥ s'_i + d_i − d_j + c, and j now comes after i.
+ */
+function mirrorConstraints(constraints: readonly (readonly Constraint[])[], dur: readonly number[]): Constraint[][] {
+  const m = constraints.length;
+  const out: Constraint[][] = constraints.map(() => []);
+  constraints.forEach((list, i) => {
+    for (const c of list) out[m - 1 - c.after]!.push({ after: m - 1 - i, offset: dur[i]! - dur[c.after]! + c.offset });
+  });
+  return out;
+}
+
+function alap(ops: readonly Operation[], n: number, dur: readonly number[], constraints: readonly (readonly Constraint[])[]) {
   const reversed = [...ops].reverse();
-  const r = asap(reversed, n, durationOf);
+  const r = asap(reversed, n, [...dur].reverse(), mirrorConstraints(constraints, dur));
   const m = ops.length;
   const start = new Float64Array(m);
   const end = new Float64Array(m);
@@ -124,7 +199,7 @@ function withIdleWindows(
   end: Float64Array,
   total: number,
   policy: 'asap' | 'alap',
-): Schedule {
+): Omit<Schedule, 'feeds'> {
   const lastEnd = new Float64Array(n);
   const measureStart: (number | null)[] = Array.from({ length: n }, () => null);
   const all: IdleWindow[] = [];
@@ -138,7 +213,7 @@ function withIdleWindows(
           all.push(w);
         }
         lastEnd[q] = Math.max(lastEnd[q]!, end[i]!);
-        if (op.kind === 'measure') measureStart[q] = start[i]!;
+        if (op.kind === 'measure' && op.bit === undefined) measureStart[q] = start[i]!;
       }
     }
     return { op, start: start[i]!, end: end[i]!, idleBefore };

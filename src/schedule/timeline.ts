@@ -6,17 +6,20 @@
  * are not operations). Taking them in ascending order, at each event time t with t′ the
  * previous one, the evolution applies:
  *   1. drift for t − t′: exp(−i·H·(t − t′)) of every detuning term of a qubit and every zz term
- *      of a coupled pair that acts in [t′, t) — a qubit's drift acts from 0 until its
- *      measurement starts (or T), a pair's while neither of its qubits is measured;
+ *      of a coupled pair that acts in [t′, t) — a qubit's drift acts from 0 until its terminal
+ *      measurement starts (or T; a mid-circuit measurement in record mode does not stop it),
+ *      a pair's while neither of its qubits is terminally measured;
  *   2. thermal relaxation for t − t′ of every qubit idle throughout [t′, t) (the idle windows of
  *      src/schedule/schedule.ts, cut at event times);
  *   3. the operations that start at t, in step order, each applied whole at this instant.
  * This is a first-order (Lie–Trotter) splitting of the continuous evolution in which drift
  * and relaxation act together; it is exact when they commute (no drift, or detuning only).
  *
- * Extending it: a new kind of event (e.g. a mid-circuit measurement that lets drift go on
- * afterwards) adds its times to `eventTimes` and its effect on `driftActive` and `starts`;
- * the consumer (src/program/program.ts) walks `events` in order.
+ * A mid-circuit measurement (record mode) is an operation like any other: it acts at its start
+ * (the branches split), its qubit then relaxes for its duration, and drift goes on (the
+ * schedule's measureStart lists terminal measurements only). Extending it: a new kind of event
+ * adds its times to `eventTimes` and its effect on the drift and `starts`; the consumer
+ * (src/program/program.ts) walks `events` in order.
  */
 import type { Schedule } from './schedule.js';
 

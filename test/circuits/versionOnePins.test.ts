@@ -13,7 +13,7 @@
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { toJson } from '../../src/cli/json.js';
+import { toJson } from '../../src/results/json.js';
 import { fray } from '../helpers/cli.js';
 
 /** The warning issue 7 adds to version-1 files whose multi-qubit gates fall back to the `all` entry. */

@@ -8,7 +8,7 @@
  *
  * Each case also lists the feature tags it exercises, so a test can check coverage.
  */
-import { gaussian, mulberry32, toYaml } from './helpers.js';
+import { gaussian, mulberry32, pick, shuffle, toYaml } from './helpers.js';
 
 /** One generated case: the circuit text, the device profile text (if any) and its relative path. */
 export interface GeneratedCase {
@@ -28,19 +28,6 @@ const TWO_QUBIT_FIXED = ['cx', 'cy', 'cz', 'ch', 'swap', 'iswap'];
 const TWO_QUBIT_ANGLE = ['cp', 'crx', 'cry', 'crz', 'rxx', 'ryy', 'rzz'];
 const THREE_QUBIT = ['ccx', 'cswap'];
 const LABEL_POOL = ['a', 'b', 'anc', 'data', 'flag', 'qa', 'qb', 'm_1', 'm_2', 'aux'];
-
-function pick<T>(rng: Rng, xs: readonly T[]): T {
-  return xs[Math.floor(rng() * xs.length)]!;
-}
-
-function shuffle<T>(rng: Rng, xs: readonly T[]): T[] {
-  const a = [...xs];
-  for (let i = a.length - 1; i > 0; i--) {
-    const j = Math.floor(rng() * (i + 1));
-    [a[i], a[j]] = [a[j]!, a[i]!];
-  }
-  return a;
-}
 
 function uniform(rng: Rng, lo: number, hi: number): number {
   return lo + (hi - lo) * rng();

@@ -78,3 +78,18 @@ export function toYaml(value: unknown, indent = 0): string {
   }
   return `${pad}${emitScalar(value)}\n`;
 }
+
+/** A uniformly chosen element of a non-empty list. */
+export function pick<T>(rng: () => number, xs: readonly T[]): T {
+  return xs[Math.floor(rng() * xs.length)]!;
+}
+
+/** A uniformly shuffled copy (Fisher–Yates; D. E. Knuth, TAOCP vol. 2, §3.4.2). */
+export function shuffle<T>(rng: () => number, xs: readonly T[]): T[] {
+  const a = [...xs];
+  for (let i = a.length - 1; i > 0; i--) {
+    const j = Math.floor(rng() * (i + 1));
+    [a[i], a[j]] = [a[j]!, a[i]!];
+  }
+  return a;
+}

@@ -32,11 +32,13 @@ export interface Mat {
 /** A complex number as [re, im]. */
 export type Cx = readonly [number, number];
 
-function zeros(d: number): Mat {
+/** The d×d zero matrix. */
+export function zeros(d: number): Mat {
   return { d, re: new Float64Array(d * d), im: new Float64Array(d * d) };
 }
 
-function fromRows(rows: readonly (readonly Cx[])[]): Mat {
+/** A matrix from its rows of complex entries. */
+export function fromRows(rows: readonly (readonly Cx[])[]): Mat {
   const d = rows.length;
   const m = zeros(d);
   for (let r = 0; r < d; r++) {
@@ -49,13 +51,15 @@ function fromRows(rows: readonly (readonly Cx[])[]): Mat {
   return m;
 }
 
-function identity(d: number): Mat {
+/** The d×d identity. */
+export function identity(d: number): Mat {
   const m = zeros(d);
   for (let i = 0; i < d; i++) m.re[i * d + i] = 1;
   return m;
 }
 
-function matmul(a: Mat, b: Mat): Mat {
+/** The product a·b. */
+export function matmul(a: Mat, b: Mat): Mat {
   const d = a.d;
   const out = zeros(d);
   for (let i = 0; i < d; i++) {
@@ -74,7 +78,8 @@ function matmul(a: Mat, b: Mat): Mat {
   return out;
 }
 
-function adjoint(a: Mat): Mat {
+/** The conjugate transpose a†. */
+export function adjoint(a: Mat): Mat {
   const d = a.d;
   const out = zeros(d);
   for (let i = 0; i < d; i++) {
@@ -86,7 +91,8 @@ function adjoint(a: Mat): Mat {
   return out;
 }
 
-function kron(a: Mat, b: Mat): Mat {
+/** The Kronecker product a ⊗ b (a the more significant factor). */
+export function kron(a: Mat, b: Mat): Mat {
   const d = a.d * b.d;
   const out = zeros(d);
   for (let i = 0; i < a.d; i++) {
@@ -107,7 +113,8 @@ function kron(a: Mat, b: Mat): Mat {
   return out;
 }
 
-function scale(a: Mat, s: number): Mat {
+/** s·a for a real s. */
+export function scale(a: Mat, s: number): Mat {
   const out = zeros(a.d);
   for (let i = 0; i < a.re.length; i++) {
     out.re[i] = a.re[i]! * s;
@@ -116,7 +123,8 @@ function scale(a: Mat, s: number): Mat {
   return out;
 }
 
-function expi(phi: number): Cx {
+/** e^{iφ}. */
+export function expi(phi: number): Cx {
   return [Math.cos(phi), Math.sin(phi)];
 }
 
@@ -128,16 +136,18 @@ function cmul(a: Cx, b: Cx): Cx {
 // Built-in gates (contract: "Built-in gates (trade-standard names and matrices)")
 // ---------------------------------------------------------------------------------------
 
-const ONE: Cx = [1, 0];
-const ZERO: Cx = [0, 0];
+/** The complex numbers 1 and 0. */
+export const ONE: Cx = [1, 0];
+export const ZERO: Cx = [0, 0];
 const I_: Cx = [0, 1];
 const MI: Cx = [0, -1];
 const R2 = Math.SQRT1_2;
 
-const PAULI_X = fromRows([[ZERO, ONE], [ONE, ZERO]]);
-const PAULI_Y = fromRows([[ZERO, MI], [I_, ZERO]]);
-const PAULI_Z = fromRows([[ONE, ZERO], [ZERO, [-1, 0]]]);
-const ID2 = identity(2);
+/** The Pauli matrices and the 2×2 identity (Nielsen & Chuang eq. 2.29–2.32). */
+export const PAULI_X = fromRows([[ZERO, ONE], [ONE, ZERO]]);
+export const PAULI_Y = fromRows([[ZERO, MI], [I_, ZERO]]);
+export const PAULI_Z = fromRows([[ONE, ZERO], [ZERO, [-1, 0]]]);
+export const ID2 = identity(2);
 
 /** Block-diagonal controlled-U, control = the first (most significant) qubit. */
 function controlled(u: Mat): Mat {
@@ -262,19 +272,19 @@ export const BUILTIN_GATES: Readonly<Record<string, BuiltinGate>> = {
 // ---------------------------------------------------------------------------------------
 
 /** Bit of qubit q in basis index idx of an n-qubit register (qubit 0 = most significant). */
-function bit(idx: number, q: number, n: number): number {
+export function bit(idx: number, q: number, n: number): number {
   return (idx >> (n - 1 - q)) & 1;
 }
 
 /** Sub-index of the target qubits in idx (first target most significant). */
-function subIndex(idx: number, targets: readonly number[], n: number): number {
+export function subIndex(idx: number, targets: readonly number[], n: number): number {
   let s = 0;
   for (const q of targets) s = (s << 1) | bit(idx, q, n);
   return s;
 }
 
 /** idx with the target bits replaced by the bits of sub-index s. */
-function withSub(idx: number, targets: readonly number[], s: number, n: number): number {
+export function withSub(idx: number, targets: readonly number[], s: number, n: number): number {
   const k = targets.length;
   let out = idx;
   for (let j = 0; j < k; j++) {
@@ -286,7 +296,7 @@ function withSub(idx: number, targets: readonly number[], s: number, n: number):
 }
 
 /** The operator K (on `targets`) ⊗ identity (elsewhere), as a sparse list of rows. */
-function embed(k: Mat, targets: readonly number[], n: number): { c: number; re: number; im: number }[][] {
+export function embed(k: Mat, targets: readonly number[], n: number): { c: number; re: number; im: number }[][] {
   const D = 1 << n;
   const rows: { c: number; re: number; im: number }[][] = [];
   for (let r = 0; r < D; r++) {
@@ -304,7 +314,7 @@ function embed(k: Mat, targets: readonly number[], n: number): { c: number; re: 
 }
 
 /** Σ_j K_j ρ K_j† with every K_j embedded on `targets` (a linear map on any matrix ρ). */
-function applyKraus(rho: Mat, kraus: readonly Mat[], targets: readonly number[], n: number): Mat {
+export function applyKraus(rho: Mat, kraus: readonly Mat[], targets: readonly number[], n: number): Mat {
   const D = rho.d;
   const out = zeros(D);
   for (const k of kraus) {
@@ -341,7 +351,7 @@ function applyKraus(rho: Mat, kraus: readonly Mat[], targets: readonly number[],
  * k-qubit depolarizing by its definition ρ → (1 − p)ρ + p·(I/d) ⊗ Tr_targets ρ, d = 2^k
  * (contract "Channel definitions"; on a subsystem, Nielsen & Chuang §8.3.4, eq. 8.102).
  */
-function applyDepolarizing(rho: Mat, p: number, targets: readonly number[], n: number): Mat {
+export function applyDepolarizing(rho: Mat, p: number, targets: readonly number[], n: number): Mat {
   const D = rho.d;
   const d = 1 << targets.length;
   const out = scale(rho, 1 - p);
@@ -375,7 +385,7 @@ export interface Thermal {
  * p1(τ) = p1·e^{−τ/t1} + pe·(1 − e^{−τ/t1}), coherences × e^{−τ/t2}. Written on the 2×2
  * blocks ρ_ab of ρ = Σ |a⟩⟨b| ⊗ ρ_ab (linear extension to the rest of the register).
  */
-function applyThermal(rho: Mat, q: number, th: Thermal, tau: number, n: number): Mat {
+export function applyThermal(rho: Mat, q: number, th: Thermal, tau: number, n: number): Mat {
   const D = rho.d;
   const e1 = Math.exp(-tau / th.t1);
   const e2 = Math.exp(-tau / th.t2);
@@ -408,7 +418,7 @@ function applyThermal(rho: Mat, q: number, th: Thermal, tau: number, n: number):
 }
 
 /** Reset of qubit q by the contract's definition ρ → |0⟩⟨0| ⊗ Tr_q ρ. */
-function applyReset(rho: Mat, q: number, n: number): Mat {
+export function applyReset(rho: Mat, q: number, n: number): Mat {
   const D = rho.d;
   const out = zeros(D);
   const mask = 1 << (n - 1 - q);
@@ -431,7 +441,8 @@ export type Op =
   | { readonly type: 'thermal'; readonly q: number; readonly th: Thermal; readonly tau: number }
   | { readonly type: 'reset'; readonly q: number };
 
-function applyOp(rho: Mat, op: Op, n: number): Mat {
+/** One channel step applied to an n-qubit matrix. */
+export function applyOp(rho: Mat, op: Op, n: number): Mat {
   switch (op.type) {
     case 'kraus':
       return applyKraus(rho, op.kraus, op.targets, n);
@@ -444,7 +455,8 @@ function applyOp(rho: Mat, op: Op, n: number): Mat {
   }
 }
 
-function remapOp(op: Op, map: readonly number[]): Op {
+/** The op with its local qubit numbers replaced through `map` (local → register). */
+export function remapOp(op: Op, map: readonly number[]): Op {
   switch (op.type) {
     case 'kraus':
     case 'depolarizing':
@@ -584,6 +596,72 @@ export function durationNs(text: unknown): number {
   return Number(m[1]) * UNIT_NS[m[2]!]!;
 }
 
+const FUNCTIONS: Readonly<Record<string, (x: number) => number>> = {
+  sqrt: Math.sqrt,
+  sin: Math.sin,
+  cos: Math.cos,
+  tan: Math.tan,
+  exp: Math.exp,
+  ln: Math.log,
+};
+
+/**
+ * An angle in radians: a number, or an expression string with + − * / ^, parentheses, unary
+ * minus, `pi`, `e`, the functions of docs/format.md, params from `scope`, and a `deg` suffix on
+ * a number. Recursive descent; `^` binds tighter than unary minus on its left operand.
+ */
+export function angleValue(v: unknown, scope: Readonly<Record<string, number>>): number {
+  if (typeof v === 'number') return v;
+  if (typeof v !== 'string') throw new Error(`unsupported angle ${JSON.stringify(v)}`);
+  const tokens = v.match(/\s*([0-9]*\.?[0-9]+(?:[eE][+-]?[0-9]+)?(?:deg)?|[A-Za-z_][A-Za-z0-9_]*|[-+*/^()])/g);
+  if (!tokens || tokens.join('').replace(/\s/g, '') !== v.replace(/\s/g, '')) throw new Error(`bad angle ${v}`);
+  const ts = tokens.map((t) => t.trim());
+  let i = 0;
+  const peek = (): string | undefined => ts[i];
+  const take = (): string => ts[i++]!;
+  const expr = (): number => {
+    let x = term();
+    while (peek() === '+' || peek() === '-') x = take() === '+' ? x + term() : x - term();
+    return x;
+  };
+  const term = (): number => {
+    let x = unary();
+    while (peek() === '*' || peek() === '/') x = take() === '*' ? x * unary() : x / unary();
+    return x;
+  };
+  const unary = (): number => (peek() === '-' ? (take(), -unary()) : peek() === '+' ? (take(), unary()) : power());
+  const power = (): number => {
+    const b = atom();
+    if (peek() === '^') {
+      take();
+      return b ** unary();
+    }
+    return b;
+  };
+  const atom = (): number => {
+    const t = take();
+    if (t === '(') {
+      const x = expr();
+      if (take() !== ')') throw new Error(`bad angle ${v}`);
+      return x;
+    }
+    if (/^[0-9.]/.test(t)) return t.endsWith('deg') ? (Number(t.slice(0, -3)) * Math.PI) / 180 : Number(t);
+    if (FUNCTIONS[t] && peek() === '(') {
+      take();
+      const x = expr();
+      if (take() !== ')') throw new Error(`bad angle ${v}`);
+      return FUNCTIONS[t]!(x);
+    }
+    if (scope[t] !== undefined) return scope[t]!;
+    if (t === 'pi') return Math.PI;
+    if (t === 'e') return Math.E;
+    throw new Error(`unknown name ${t} in angle ${v}`);
+  };
+  const x = expr();
+  if (i !== ts.length) throw new Error(`bad angle ${v}`);
+  return x;
+}
+
 /** A matrix entry: a number, or a complex string of the forms the generator emits. */
 function parseEntry(v: unknown): Cx {
   if (typeof v === 'number') return [v, 0];
@@ -598,19 +676,23 @@ function parseEntry(v: unknown): Cx {
   throw new Error(`unsupported matrix entry ${JSON.stringify(v)}`);
 }
 
-function parseMatrix(rows: unknown): Mat {
+/** A matrix from the file's rows of matrix entries. */
+export function parseMatrix(rows: unknown): Mat {
   return fromRows((rows as unknown[][]).map((row) => row.map(parseEntry)));
 }
 
-function log2int(d: number): number {
+/** log2 of a power of two (the number of qubits of a dimension). */
+export function log2int(d: number): number {
   const k = Math.round(Math.log2(d));
   if (1 << k !== d) throw new Error(`dimension ${d} is not a power of two`);
   return k;
 }
 
-type Dict = Record<string, unknown>;
+/** A parsed YAML map. */
+export type Dict = Record<string, unknown>;
 
-const NOISE_ORDER = [
+/** The noise kinds in the contract's order of application. */
+export const NOISE_ORDER = [
   'amplitude_damping',
   'phase_damping',
   'bit_flip',
@@ -620,10 +702,11 @@ const NOISE_ORDER = [
   'channel',
   'depolarizing',
 ] as const;
-const NOISE_KEYS = new Set<string>([...NOISE_ORDER, 'error']);
+/** Every noise-kind key of a version-1 gate entry. */
+export const NOISE_KEYS = new Set<string>([...NOISE_ORDER, 'error']);
 
 /** Merge of gate-entry maps, field by field, `error` and `depolarizing` replacing each other. */
-function mergeEntry(base: Dict | undefined, over: Dict | undefined): Dict {
+export function mergeEntry(base: Dict | undefined, over: Dict | undefined): Dict {
   const out: Dict = { ...(base ?? {}) };
   for (const [k, v] of Object.entries(over ?? {})) {
     if (k === 'error') delete out.depolarizing;
@@ -693,8 +776,23 @@ export interface ReferenceResult {
   readonly applications: readonly RefApplication[];
 }
 
-/** Runs a circuit file text (and its device profile text, if it names one) by the contract. */
-export function referenceRun(circuitText: string, deviceText?: string): ReferenceResult {
+/** A composite gate's part: built-in gate name, local targets (first most significant) and matrix. */
+export interface CompositePart {
+  readonly name: string;
+  readonly targets: readonly number[];
+  readonly u: Mat;
+}
+
+/** A custom gate: its qubit count, parameter count, unitary from the angles, and (composites) its parts. */
+export interface CustomGate {
+  readonly k: number;
+  readonly params: number;
+  readonly unitary: (a: readonly number[]) => Mat;
+  readonly parts?: (a: readonly number[]) => CompositePart[];
+}
+
+/** Everything read from a circuit and its profile before the steps: register, merged profile, per-qubit properties, gate entries, custom gates, channels, noise kinds. */
+export function circuitSetup(circuitText: string, deviceText?: string) {
   const doc = YAML.parse(circuitText) as Dict;
   const labels: string[] | undefined = Array.isArray(doc.qubits) ? (doc.qubits as unknown[]).map(String) : undefined;
   const n = labels ? labels.length : (doc.qubits as number);
@@ -724,11 +822,13 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
 
   const thermal: (Thermal | undefined)[] = [];
   const readout: { z1: number; o0: number }[] = [];
+  const qubitProps: Dict[] = [];
   for (let q = 0; q < n; q++) {
     let props: Dict = { ...((pq.all as Dict | undefined) ?? {}) };
     for (const [k, v] of Object.entries(pq)) {
       if (k !== 'all' && keyQubit(k) === q) props = { ...props, ...(v as Dict) };
     }
+    qubitProps.push(props);
     if (props.t1 !== undefined || props.t2 !== undefined) {
       // reading of "missing t1 means no relaxation": t1 = ∞ (no population decay); a given t2
       // still dephases (fray reads it the same way; see the report)
@@ -763,16 +863,9 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
     return e;
   };
 
-  // --- angles: a number, or (the subset the generator emits) a parameter name or its negative
-  const circuitParams = (doc.params ?? {}) as Record<string, number>;
-  const angleValue = (v: unknown, scope: Record<string, number>): number => {
-    if (typeof v === 'number') return v;
-    if (typeof v === 'string') {
-      const m = /^\s*(-?)\s*([A-Za-z_][A-Za-z0-9_]*)\s*$/.exec(v);
-      if (m && scope[m[2]!] !== undefined) return (m[1] === '-' ? -1 : 1) * scope[m[2]!]!;
-    }
-    throw new Error(`unsupported angle ${JSON.stringify(v)}`);
-  };
+  // --- angles: numbers or expressions; params evaluated in order, each may use the earlier ones
+  const circuitParams: Record<string, number> = {};
+  for (const [k, v] of Object.entries((doc.params ?? {}) as Dict)) circuitParams[k] = angleValue(v, circuitParams);
   const stepAngles = (st: Dict, count: number, scope: Record<string, number>): number[] => {
     if (count === 0) return [];
     const raw = st.angles !== undefined ? (st.angles as unknown[]) : [st.angle];
@@ -782,7 +875,7 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
 
   // --- custom gates: matrix gates, and composite gates (product of their steps; their own
   // params, bound at the call site in order, shadow the circuit's)
-  const customGates = new Map<string, { k: number; params: number; unitary: (a: readonly number[]) => Mat }>();
+  const customGates = new Map<string, CustomGate>();
   for (const [name, def] of Object.entries((doc.gates ?? {}) as Dict)) {
     const g = def as Dict;
     if (g.matrix !== undefined) {
@@ -791,20 +884,19 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
     } else {
       const k = g.qubits as number;
       const pnames = (g.params ?? []) as string[];
-      const unitary = (a: readonly number[]): Mat => {
+      const parts = (a: readonly number[]): CompositePart[] => {
         const scope: Record<string, number> = { ...circuitParams };
         pnames.forEach((pn, i) => (scope[pn] = a[i]!));
-        let u = identity(1 << k);
-        for (const st of g.steps as Dict[]) {
+        return (g.steps as Dict[]).map((st) => {
           const gname = Object.keys(st).find((x) => x !== 'angle' && x !== 'angles' && x !== 'label')!;
           const bg = BUILTIN_GATES[gname]!;
-          const tg = Array.isArray(st[gname]) ? (st[gname] as number[]) : [st[gname] as number];
-          // later steps multiply from the left
-          u = matmul(embedFull(bg.matrix(stepAngles(st, bg.angles, scope)), tg, k), u);
-        }
-        return u;
+          const targets = Array.isArray(st[gname]) ? (st[gname] as number[]) : [st[gname] as number];
+          return { name: gname, targets, u: bg.matrix(stepAngles(st, bg.angles, scope)) };
+        });
       };
-      customGates.set(name, { k, params: pnames.length, unitary });
+      // later steps multiply from the left
+      const unitary = (a: readonly number[]): Mat => parts(a).reduce((u, p) => matmul(embedFull(p.u, p.targets, k), u), identity(1 << k));
+      customGates.set(name, { k, params: pnames.length, unitary, parts });
     }
   }
   const channels = new Map<string, { k: number; kraus: Mat[] }>();
@@ -876,13 +968,20 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
     return { ops };
   };
 
+  const listOf = (t: unknown): unknown[] => (t === 'all' ? Array.from({ length: n }, (_, i) => i) : Array.isArray(t) ? t : [t]);
+  return { doc, labels, n, D, ref, keyQubit, device, profile, schedulePolicy, idlePolicy, thermal, readout, qubitProps, entryFor, circuitParams, stepAngles, customGates, channels, kindOps, listOf };
+}
+
+/** Runs a circuit file text (and its device profile text, if it names one) by the contract. */
+export function referenceRun(circuitText: string, deviceText?: string): ReferenceResult {
+  const { doc, labels, n, D, ref, schedulePolicy, idlePolicy, thermal, readout, entryFor, circuitParams, stepAngles, customGates, kindOps, listOf } = circuitSetup(circuitText, deviceText);
+
   // --- steps → applications
   const apps: RefApplication[] = [];
   const measuredSet = new Set<number>();
   const warnings: string[] = [];
   const solvedErrors: number[] = [];
   let anyMeasure = false;
-  const listOf = (t: unknown): unknown[] => (t === 'all' ? Array.from({ length: n }, (_, i) => i) : Array.isArray(t) ? t : [t]);
   const MODIFIERS = new Set(['angle', 'angles', 'noise', 'for', 'on', 'label']);
 
   for (const step of doc.steps as Dict[]) {
@@ -1040,18 +1139,7 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
   ensemble[0]!.re[0] = 1;
   for (const a of apps) {
     if (a.kind === 'gate') {
-      const f = embed(a.unitary!, a.qubits, n);
-      ensemble = ensemble.map((v) => {
-        const re = new Float64Array(D);
-        const im = new Float64Array(D);
-        for (let r = 0; r < D; r++) {
-          for (const e of f[r]!) {
-            re[r] += e.re * v.re[e.c]! - e.im * v.im[e.c]!;
-            im[r] += e.re * v.im[e.c]! + e.im * v.re[e.c]!;
-          }
-        }
-        return { re, im };
-      });
+      ensemble = applyUnitaryToVectors(ensemble, a.unitary!, a.qubits, n);
     } else if (a.kind === 'reset') {
       const mask = 1 << (n - 1 - a.qubits[0]!);
       const next: { re: Float64Array; im: Float64Array }[] = [];
@@ -1079,73 +1167,14 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
 
   // --- results
   const measured = anyMeasure ? [...measuredSet].sort((x, y) => x - y) : Array.from({ length: n }, (_, i) => i);
-  const m = measured.length;
-  const marg = (diag: (i: number) => number): Float64Array => {
-    const out = new Float64Array(1 << m);
-    for (let i = 0; i < D; i++) {
-      let s = 0;
-      for (const q of measured) s = (s << 1) | bit(i, q, n);
-      out[s] += diag(i);
-    }
-    return out;
-  };
-  const pIdeal = marg((i) => ensemble.reduce((acc, v) => acc + v.re[i]! ** 2 + v.im[i]! ** 2, 0));
-  const pNoisy = marg((i) => rho.re[i * D + i]!);
-  // readout confusion on each measured qubit: P(read 1 | 0) = zero_as_one, P(read 0 | 1) = one_as_zero
-  let pMeas = Float64Array.from(pNoisy);
-  measured.forEach((q, j) => {
-    const { z1, o0 } = readout[q]!;
-    const next = new Float64Array(1 << m);
-    const bm = 1 << (m - 1 - j);
-    for (let s = 0; s < 1 << m; s++) {
-      const b = s & bm ? 1 : 0;
-      const s0 = s & ~bm;
-      const s1 = s | bm;
-      // P(read b) = Σ_a P(b | a) p(a)
-      next[s] = b === 0 ? (1 - z1) * pMeas[s0]! + o0 * pMeas[s1]! : z1 * pMeas[s0]! + (1 - o0) * pMeas[s1]!;
-    }
-    pMeas = next;
-  });
-  const probabilities = { ideal: {} as Record<string, number>, noisy: {} as Record<string, number>, measured: {} as Record<string, number> };
-  let fc = 0;
-  let tvd = 0;
-  for (let s = 0; s < 1 << m; s++) {
-    const ks = measured.length === 0 ? '' : Array.from({ length: m }, (_, j) => String((s >> (m - 1 - j)) & 1)).join('');
-    probabilities.ideal[ks] = pIdeal[s]!;
-    probabilities.noisy[ks] = pNoisy[s]!;
-    probabilities.measured[ks] = pMeas[s]!;
-    fc += Math.sqrt(Math.max(0, pIdeal[s]!) * Math.max(0, pMeas[s]!));
-    tvd += 0.5 * Math.abs(pIdeal[s]! - pMeas[s]!);
-  }
+  const { probabilities, classical, tvd } = terminalDistributions(measured, n, ensemble, rho, readout);
 
   let purity = 0;
   for (let i = 0; i < D * D; i++) purity += rho.re[i]! ** 2 + rho.im[i]! ** 2;
 
   const fstate = ensembleFidelity(ensemble, rho);
 
-  let observables: Record<string, { ideal: number; noisy: number }> | undefined;
-  if (Array.isArray(doc.observe)) {
-    observables = {};
-    for (const ps of doc.observe as string[]) {
-      let P = identity(1);
-      for (const ch of ps) P = kron(P, ch === 'X' ? PAULI_X : ch === 'Y' ? PAULI_Y : ch === 'Z' ? PAULI_Z : ID2);
-      let noisy = 0;
-      for (let i = 0; i < D; i++) for (let j = 0; j < D; j++) noisy += P.re[i * D + j]! * rho.re[j * D + i]! - P.im[i * D + j]! * rho.im[j * D + i]!;
-      let ideal = 0;
-      for (const v of ensemble) {
-        for (let i = 0; i < D; i++) {
-          let pr = 0;
-          let pi = 0;
-          for (let j = 0; j < D; j++) {
-            pr += P.re[i * D + j]! * v.re[j]! - P.im[i * D + j]! * v.im[j]!;
-            pi += P.re[i * D + j]! * v.im[j]! + P.im[i * D + j]! * v.re[j]!;
-          }
-          ideal += v.re[i]! * pr + v.im[i]! * pi;
-        }
-      }
-      observables[ps] = { ideal, noisy };
-    }
-  }
+  const observables = observablesOf(doc.observe, rho, ensemble);
 
   return {
     name: (doc.name as string | undefined) ?? null,
@@ -1155,7 +1184,7 @@ export function referenceRun(circuitText: string, deviceText?: string): Referenc
     schedule: schedulePolicy,
     duration_ns: T,
     probabilities,
-    fidelity: { state: fstate, classical: fc * fc },
+    fidelity: { state: fstate, classical },
     tvd,
     purity,
     ...(observables ? { observables } : {}),
@@ -1187,7 +1216,7 @@ function sandwich(a: Vec, m: Mat, b: Vec): Cx {
 }
 
 /** ⟨a|b⟩. */
-function inner(a: Vec, b: Vec): Cx {
+export function inner(a: Vec, b: Vec): Cx {
   let sr = 0;
   let si = 0;
   for (let i = 0; i < a.re.length; i++) {
@@ -1198,7 +1227,7 @@ function inner(a: Vec, b: Vec): Cx {
 }
 
 /** A complex vector. */
-interface Vec {
+export interface Vec {
   readonly re: Float64Array;
   readonly im: Float64Array;
 }
@@ -1210,7 +1239,7 @@ interface Vec {
  * twice), S = Q†σQ = L L† (Cholesky), X = Q†ρQ. L†XL is unitarily similar to √S X √S
  * (√S⁻¹L is unitary), so the fidelity is (Σ √eig(L†XL))². For one vector it is ⟨v|ρ|v⟩.
  */
-function ensembleFidelity(ensemble: readonly Vec[], rho: Mat): number {
+export function ensembleFidelity(ensemble: readonly Vec[], rho: Mat): number {
   const D = rho.d;
   const basis: Vec[] = [];
   for (const v of ensemble) {
@@ -1287,14 +1316,14 @@ function ensembleFidelity(ensemble: readonly Vec[], rho: Mat): number {
 }
 
 /** The noise-kind fields of a profile entry. */
-function pickKinds(e: Dict): Dict {
+export function pickKinds(e: Dict): Dict {
   const out: Dict = {};
   for (const [k, v] of Object.entries(e)) if (NOISE_KEYS.has(k)) out[k] = v;
   return out;
 }
 
 /** A k-qubit gate embedded as a full matrix on a `k`-qubit register (first target most significant). */
-function embedFull(g: Mat, targets: readonly number[], n: number): Mat {
+export function embedFull(g: Mat, targets: readonly number[], n: number): Mat {
   const D = 1 << n;
   const out = zeros(D);
   const rows = embed(g, targets, n);
@@ -1305,4 +1334,100 @@ function embedFull(g: Mat, targets: readonly number[], n: number): Mat {
     }
   }
   return out;
+}
+
+// ---------------------------------------------------------------------------------------
+// Results shared by the version-1 and version-2 oracles
+// ---------------------------------------------------------------------------------------
+
+/** ψ → (U on `qubits`)·ψ for every member of a pure-state ensemble. */
+export function applyUnitaryToVectors(ensemble: readonly Vec[], u: Mat, qubits: readonly number[], n: number): Vec[] {
+  const D = 1 << n;
+  const f = embed(u, qubits, n);
+  return ensemble.map((v) => {
+    const re = new Float64Array(D);
+    const im = new Float64Array(D);
+    for (let r = 0; r < D; r++) {
+      for (const e of f[r]!) {
+        re[r] += e.re * v.re[e.c]! - e.im * v.im[e.c]!;
+        im[r] += e.re * v.im[e.c]! + e.im * v.re[e.c]!;
+      }
+    }
+    return { re, im };
+  });
+}
+
+/**
+ * The distributions over the measured qubits (bitstring character j = measured[j]): ideal from
+ * the ensemble Σ|v⟩⟨v|, noisy from ρ's diagonal, measured = noisy after each qubit's readout
+ * confusion; with fidelity.classical = (Σ√(p_ideal·p_measured))² and tvd = ½Σ|p_ideal − p_measured|.
+ */
+export function terminalDistributions(
+  measured: readonly number[],
+  n: number,
+  ensemble: readonly Vec[],
+  rho: Mat,
+  readout: readonly { z1: number; o0: number }[],
+): { probabilities: { ideal: Record<string, number>; noisy: Record<string, number>; measured: Record<string, number> }; classical: number; tvd: number } {
+  const D = 1 << n;
+  const m = measured.length;
+  const marg = (diag: (i: number) => number): Float64Array => {
+    const out = new Float64Array(1 << m);
+    for (let i = 0; i < D; i++) {
+      let s = 0;
+      for (const q of measured) s = (s << 1) | bit(i, q, n);
+      out[s] += diag(i);
+    }
+    return out;
+  };
+  const pIdeal = marg((i) => ensemble.reduce((acc, v) => acc + v.re[i]! ** 2 + v.im[i]! ** 2, 0));
+  const pNoisy = marg((i) => rho.re[i * D + i]!);
+  // readout confusion on each measured qubit: P(read 1 | 0) = zero_as_one, P(read 0 | 1) = one_as_zero
+  let pMeas = Float64Array.from(pNoisy);
+  measured.forEach((q, j) => {
+    const { z1, o0 } = readout[q]!;
+    const next = new Float64Array(1 << m);
+    const bm = 1 << (m - 1 - j);
+    for (let s = 0; s < 1 << m; s++) {
+      const b = s & bm ? 1 : 0;
+      const s0 = s & ~bm;
+      const s1 = s | bm;
+      // P(read b) = Σ_a P(b | a) p(a)
+      next[s] = b === 0 ? (1 - z1) * pMeas[s0]! + o0 * pMeas[s1]! : z1 * pMeas[s0]! + (1 - o0) * pMeas[s1]!;
+    }
+    pMeas = next;
+  });
+  const probabilities = { ideal: {} as Record<string, number>, noisy: {} as Record<string, number>, measured: {} as Record<string, number> };
+  let fc = 0;
+  let tvd = 0;
+  for (let s = 0; s < 1 << m; s++) {
+    const ks = measured.length === 0 ? '' : Array.from({ length: m }, (_, j) => String((s >> (m - 1 - j)) & 1)).join('');
+    probabilities.ideal[ks] = pIdeal[s]!;
+    probabilities.noisy[ks] = pNoisy[s]!;
+    probabilities.measured[ks] = pMeas[s]!;
+    fc += Math.sqrt(Math.max(0, pIdeal[s]!) * Math.max(0, pMeas[s]!));
+    tvd += 0.5 * Math.abs(pIdeal[s]! - pMeas[s]!);
+  }
+
+  return { probabilities, classical: fc * fc, tvd };
+}
+
+/** ⟨P⟩ = Tr(Pρ) (noisy) and Σ_v ⟨v|P|v⟩ (ideal) for each Pauli string of `observe` (qubit 0 leftmost). */
+export function observablesOf(observe: unknown, rho: Mat, ensemble: readonly Vec[]): Record<string, { ideal: number; noisy: number }> | undefined {
+  const D = rho.d;
+  let observables: Record<string, { ideal: number; noisy: number }> | undefined;
+  if (Array.isArray(observe)) {
+    observables = {};
+    for (const ps of observe as string[]) {
+      let P = identity(1);
+      for (const ch of ps) P = kron(P, ch === 'X' ? PAULI_X : ch === 'Y' ? PAULI_Y : ch === 'Z' ? PAULI_Z : ID2);
+      let noisy = 0;
+      for (let i = 0; i < D; i++) for (let j = 0; j < D; j++) noisy += P.re[i * D + j]! * rho.re[j * D + i]! - P.im[i * D + j]! * rho.im[j * D + i]!;
+      let ideal = 0;
+      for (const v of ensemble) ideal += sandwich(v, P, v)[0];
+      observables[ps] = { ideal, noisy };
+    }
+  }
+
+  return observables;
 }

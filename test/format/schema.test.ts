@@ -175,7 +175,7 @@ describe('JSON Schemas of the file formats', () => {
   }
 
   it('lets each action take exactly the modifiers fray lets it take (every action × every modifier, tried in both)', () => {
-    const values: Record<string, string> = { angle: '0.1', angles: '[0.1]', noise: '{ bit_flip: 0.1 }', for: '10ns', on: '0', label: 'x' };
+    const values: Record<string, string> = { angle: '0.1', angles: '[0.1]', noise: '{ bit_flip: 0.1 }', for: '10ns', on: '0', label: 'x', into: 'm0', if: 'm0' };
     expect(Object.keys(values).sort()).toEqual([...STEP_MODIFIERS].sort());
     let accepted = 0;
     for (const action of STEP_ACTIONS) {
@@ -190,7 +190,7 @@ describe('JSON Schemas of the file formats', () => {
         expect(ACTION_MODIFIERS[action].includes(modifier)).toBe(frayTakes);
       }
     }
-    expect(accepted).toBe(6);
+    expect(accepted).toBe(8);
     expect(valid('circuit', 'qubits: 1\nsteps:\n  - idle: 0\n')).toBe(false); // fray: missing-for
   });
 

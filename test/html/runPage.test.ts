@@ -60,6 +60,15 @@ describe('fray run --html', () => {
     expect(zz).toContain('Always-on zz: 0–1 30 kHz, 1–2 260 kHz, 2–3 35 kHz.');
   });
 
+  it('record mode: outcomes are records, conditioned steps and the bits that feed them are marked', async () => {
+    const { html, json } = await report('circuits/teleport.yaml');
+    expect(json.bits).toBeDefined();
+    expect(html).toContain(`Most likely records`);
+    expect(html).toContain(`<dt>record</dt><dd>${json.bits.join(' ')} (bit order of every outcome, left to right)</dd>`);
+    expect(html).toMatch(/<title>step 8: x on dst · 1840 ns → 1870 ns \(30 ns\)[^<]* · only if b = 1<\/title>/);
+    expect((/<g class="mark-rule role-mark feeds_marks"[^>]*>(.*?)<\/g>/.exec(html)?.[1]?.match(/<line /g) ?? []).length).toBe(2);
+  });
+
   it('lists the costliest idle windows with their 1 − F_avg', async () => {
     const { html } = await report('circuits/ghz5.yaml');
     // qubit 3 waits longest before its cx (ghz5 builds the chain from qubit 0)

@@ -110,3 +110,118 @@ describe('ALAP', () => {
     }
   });
 });
+
+describe('classical dependencies (record mode)', () => {
+  // The issue's rules, times worked out by hand: measure 500 ns, latency 200 ns, gates 10 ns.
+  const record = (schedule: 'asap' | 'alap', steps: string) =>
+    loadText(`qubits: 3
+noise:
+  schedule: ${schedule}
+  gates:
+    all: { duration: 10ns }
+    measure: { duration: 500ns, latency: 200ns }
+steps:
+${steps}`);
+  const times = (steps: string, policy: 'asap' | 'alap') => {
+    const { circuit, profile: p } = record(policy, steps);
+    const s = scheduleCircuit(circuit, p);
+    return { s, t: s.items.map((i) => [i.op.kind === 'gate' ? i.op.name : i.op.kind, i.start, i.end]) };
+  };
+  const feedForward = `  - h: 0
+  - measure: 0
+    into: m
+  - x: 1
+    if: m
+  - measure: 1
+    into: m
+  - h: 2
+`;
+
+  it('ASAP: a conditioned step waits for the measurement end + latency; a rewrite waits for the earlier read', () => {
+    const { s, t } = times(feedForward, 'asap');
+    expect(t).toEqual([
+      ['h', 0, 10],
+      ['measure', 10, 510],
+      ['x', 710, 720], // 510 + 200 latency, although qubit 1 is free from 0
+      ['measure', 720, 1220], // after x on qubit 1 (and no earlier than x's start, which reads m)
+      ['h', 0, 10],
+    ]);
+    expect(s.feeds).toEqual([{ measure: 1, to: 2, bit: 0, latency: 200 }]);
+    // no measurement is terminal: qubit 0 idles after its measurement until the end
+    expect(s.trailingIdle).toContainEqual({ qubit: 0, start: 510, end: 1220 });
+    expect(s.measureStart).toEqual([null, null, null]);
+  });
+
+  it('ALAP mirrors the constraints: same critical path, slack moves late, dependencies still hold', () => {
+    const { s, t } = times(feedForward + '  - h: 0\n', 'alap');
+    expect(t).toEqual([
+      ['h', 0, 10],
+      ['measure', 10, 510],
+      ['x', 710, 720],
+      ['measure', 720, 1220],
+      ['h', 1210, 1220],
+      ['h', 1210, 1220],
+    ]);
+    expect(s.duration).toBe(1220);
+  });
+
+  it('ALAP keeps a conditioned step latency after its measurement when the slack would allow less', () => {
+    // reversed: x and the last h at 0; the measurement must start ≥ x's end + 200 in mirrored time
+    const { t } = times(`  - h: 0
+  - measure: 0
+    into: m
+  - x: 1
+    if: m
+  - h: 0
+`, 'alap');
+    expect(t).toEqual([
+      ['h', 0, 10],
+      ['measure', 10, 510],
+      ['x', 710, 720],
+      ['h', 710, 720],
+    ]);
+  });
+
+  it('a measurement that rewrites a bit starts no earlier than a read of it on another qubit', () => {
+    // x on qubit 1 reads a at 700 (500 + latency); the rewrite of a on qubit 2 (free at 0) starts at 700, not 0
+    const { t } = times(`  - measure: 0
+    into: a
+  - x: 1
+    if: a
+  - measure: 2
+    into: a
+`, 'asap');
+    expect(t).toEqual([
+      ['measure', 0, 500],
+      ['x', 700, 710],
+      ['measure', 700, 1200],
+    ]);
+  });
+});
+
+describe('classical dependencies with simultaneous readout', () => {
+  it('the feeds name the right items after the readout barriers are taken out', () => {
+    const { circuit, profile: p } = loadText(`qubits: 3
+noise:
+  gates:
+    all: { duration: 10ns }
+    measure: { duration: 500ns, latency: 200ns, simultaneous: true }
+steps:
+  - h: 0
+  - measure: [0, 1]
+    into: [a, b]
+  - x: 2
+    if: b
+`);
+    const s = scheduleCircuit(circuit, p);
+    expect(s.feeds).toHaveLength(1);
+    const f = s.feeds[0]!;
+    const from = s.items[f.measure]!;
+    const to = s.items[f.to]!;
+    expect(from.op.kind === 'measure' && from.op.qubits[0]).toBe(1);
+    expect(to.op.kind === 'gate' && to.op.name).toBe('x');
+    // both measurements start together at 10 (after h on qubit 0); x waits for 10 + 500 + 200
+    expect(from.start).toBe(10);
+    expect(to.start).toBe(710);
+  });
+});

@@ -11,6 +11,7 @@ import { CHANNEL_DEFINITION_KEYS, CHANNEL_FORM_KEYS, THERMAL_KEYS } from '../cha
 import { CIRCUIT_KEYS } from '../circuitFile.js';
 import { COMPOSITE_GATE_KEYS, MAX_CUSTOM_GATE_QUBITS } from '../gateLibrary.js';
 import { PAULI_KEYS } from '../noiseKindsSpec.js';
+import { BIT_NAME } from '../record.js';
 import { MAX_DECLARED_QUBITS } from '../register.js';
 import { STEP_ACTIONS, STEP_MODIFIERS } from '../stepShape.js';
 import { keyedObject, type JsonSchema, type SchemaGap } from './keyedObject.js';
@@ -30,6 +31,11 @@ export function circuitDefs(gaps: SchemaGap[]): Record<string, JsonSchema> {
     for: { ...DURATION, description: 'how long an idle step waits' },
     on: { ...ref('target'), description: 'the qubits of a standalone noise step' },
     label: { ...TEXT, description: 'a label shown in reports' },
+    into: { anyOf: [ref('bitName'), { type: 'array', minItems: 1, items: ref('bitName') }], description: 'record mode: the bit (one per measured qubit, in order) the measurement writes' },
+    if: {
+      anyOf: [ref('bitName'), { type: 'object', minProperties: 1, propertyNames: { pattern: BIT_NAME.source }, additionalProperties: { enum: [0, 1] } }],
+      description: 'record mode: run this step only when the bit reads 1 (a name), or when the bits read the given values (a map)',
+    },
   };
   const actionValues = Object.fromEntries(STEP_ACTIONS.map((a) => [a, { ...ref('target'), description: ACTION_DESCRIPTIONS[a] }]));
   const modifiers = keyedObject('step modifiers', STEP_MODIFIERS, modifierValues, gaps);
@@ -116,6 +122,7 @@ export function circuitDefs(gaps: SchemaGap[]): Record<string, JsonSchema> {
       description: 'Pauli strings to report ⟨P⟩ for: one letter I, X, Y, Z per qubit, qubit 0 leftmost',
       anyOf: [ref('pauliString'), { type: 'array', items: ref('pauliString') }],
     },
+    bits: { type: 'array', items: ref('bitName'), uniqueItems: true, description: 'record mode: the order of the record bits (leftmost first)' },
     steps: { type: 'array', minItems: 1, items: ref('step'), description: 'the steps, executed in order' },
   }, gaps, { description: 'a fray circuit file', required: ['qubits', 'steps'] });
   return {
@@ -128,6 +135,7 @@ export function circuitDefs(gaps: SchemaGap[]): Record<string, JsonSchema> {
     target: TARGET,
     qubit: QUBIT_REF,
     pauliString: { type: 'string', pattern: '^[IXYZ]+$' },
+    bitName: { type: 'string', pattern: BIT_NAME.source, description: 'a record bit: a word, or a word with an index such as c[3]' },
   };
 }
 
@@ -139,8 +147,8 @@ export function circuitDefs(gaps: SchemaGap[]): Record<string, JsonSchema> {
 export const ACTION_MODIFIERS: Readonly<Record<(typeof STEP_ACTIONS)[number], readonly (typeof STEP_MODIFIERS)[number][]>> = {
   idle: ['for', 'label'],
   barrier: ['label'],
-  measure: ['label'],
-  reset: ['noise', 'label'],
+  measure: ['label', 'into'],
+  reset: ['noise', 'label', 'if'],
 };
 
 const ACTION_DESCRIPTIONS: Readonly<Record<(typeof STEP_ACTIONS)[number], string>> = {

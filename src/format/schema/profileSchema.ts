@@ -39,6 +39,7 @@ export function profileDefs(gaps: SchemaGap[]): Record<string, JsonSchema> {
   const gateValues: Record<string, JsonSchema> = {
     duration: DURATION,
     thermal: { type: 'boolean', description: 'whether the qubits relax (t1, t2) during the gate (default true)' },
+    latency: { ...DURATION, description: "the 'measure' entry: classical delay from a measurement's end to a step conditioned on its bit" },
     split: { type: 'boolean', description: "a composite gate's entry: run it as its parts, each scheduled and noisy on its own" },
     simultaneous: { type: 'boolean', description: "the 'measure' entry: a measure step's readouts start together" },
     ...kinds,
@@ -50,11 +51,11 @@ export function profileDefs(gaps: SchemaGap[]): Record<string, JsonSchema> {
   const measureEntry: JsonSchema = {
     type: 'object',
     description: "the measurement's duration; its errors are the qubits' 'readout' probabilities",
-    properties: { duration: DURATION, simultaneous: gateValues['simultaneous']! },
+    properties: { duration: DURATION, simultaneous: gateValues['simultaneous']!, latency: gateValues['latency']! },
     additionalProperties: false,
   };
   // checkResetEntry (src/noise/profile.ts): a duration and noise kinds, but no 'error' or 'coherent' (no unitary to compare with or rotate).
-  const resetKeys = GATE_KEYS.filter((k) => !['thermal', 'split', 'simultaneous', 'error', 'coherent'].includes(k));
+  const resetKeys = GATE_KEYS.filter((k) => !['thermal', 'latency', 'split', 'simultaneous', 'error', 'coherent'].includes(k));
   const resetEntry: JsonSchema = {
     type: 'object',
     description: "the reset's duration and the noise after it (no 'thermal', 'error' or 'coherent')",
