@@ -39,7 +39,13 @@ export { renderSvg, plotCompare, plotSweep, plotBudget, timelineSpec, comparison
 export type { TimelineData, ComparisonChart } from './plots/index.js';
 export { InputError, ProblemList, formatProblem } from './format/problem.js';
 export type { Problem, SourcePosition } from './format/problem.js';
-export type { Circuit, Operation, Register, Condition as BitCondition, ConditionTerm } from './circuit/circuit.js';
+export type { Circuit, Operation, Register, GateDefinition, Condition as BitCondition, ConditionTerm } from './circuit/circuit.js';
+export { readQasm, isQasmPath, writeQasm, loadQasmToolkit } from './format/qasm/index.js';
+export type { QasmWriteOptions } from './format/qasm/index.js';
+export { writeCircuitYaml } from './format/writeCircuit.js';
+export { convertToYaml, exportQasm } from './api/convert.js';
+export type { Converted } from './api/convert.js';
+export { zyzAngles } from './circuit/zyz.js';
 export { BUILTIN_GATES } from './circuit/gates.js';
 export type { NoiseProfile, QubitNoise, GateEntry, Coupling } from './noise/profile.js';
 export type { Schedule, TimedOperation, IdleWindow, Feed } from './schedule/schedule.js';

@@ -1,11 +1,12 @@
 import { hasDrift } from '../program/program.js';
 import type { Simulation } from './simulate.js';
 
-/** How a report names the noise source of a run: the device's name, "inline noise", or none. */
+/** How a report names the noise source of a run: the device's name, "inline noise", noise only in the steps, or an ideal run. */
 export function deviceDescription(sim: Simulation): string {
   if (sim.result.device !== null) return sim.result.device;
-  const relaxes = sim.profile.qubits.some((q) => Number.isFinite(q.t1) || Number.isFinite(q.t2));
-  return relaxes ? 'inline noise' : 'none (noise only as written in the circuit)';
+  const noiseWritten = sim.circuit.inlineNoise !== null || sim.circuit.operations.some((op) => op.kind === 'channel' || ('noise' in op && op.noise !== undefined));
+  if (!noiseWritten) return 'none: an ideal run (give a noise profile with --device)';
+  return sim.profile.qubits.every((q) => !Number.isFinite(q.t1) && !Number.isFinite(q.t2)) ? 'none (noise only as written in the circuit)' : 'inline noise';
 }
 
 /** The device facts a report header shows besides the basics: readout timing, the coupling map, drift. */

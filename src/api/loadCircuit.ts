@@ -7,6 +7,7 @@ import { fileStart, InputError, ProblemList, type Problem, type SourcePosition }
 import { readProfile, type ProfileSpec } from '../format/profileSpec.js';
 import { entryOf } from '../format/read.js';
 import { parseYamlTree, type YNode } from '../format/yamlTree.js';
+import { isQasmPath, lowerQasm, parseQasm, type QasmProgram } from '../format/qasm/index.js';
 import { resolveProfile, type NoiseProfile } from '../noise/profile.js';
 import { scaleNoise } from '../noise/scale.js';
 
@@ -45,7 +46,10 @@ export interface LoadedCircuit {
  */
 export interface CircuitSource {
   readonly file: string;
-  readonly root: YNode;
+  /** The YAML circuit's located tree (undefined for an OpenQASM program). */
+  readonly root: YNode | undefined;
+  /** The OpenQASM program's syntax tree (for a `.qasm` file; docs/qasm.md). */
+  readonly qasm?: QasmProgram;
   /** The device profile (from `device:` or the device option), read once. */
   readonly deviceSpec: ProfileSpec | undefined;
   /** Problems of reading the files (only warnings when the source exists). */
@@ -83,6 +87,7 @@ export function parseCircuitSource(
   problems: ProblemList,
   options: { device?: string; readDevice?: DeviceReader } = {},
 ): CircuitSource | undefined {
+  if (isQasmPath(file)) return parseQasmSource(text, file, problems, options);
   const root = parseYamlTree(text, file, problems);
   if (root === undefined) return undefined;
   // The device path is read straight from the tree; readCircuitTree validates the key itself.
@@ -105,6 +110,38 @@ export function parseCircuitSource(
   return { file, root, deviceSpec, warnings: problems.warnings };
 }
 
+/** An OpenQASM program as a source: its syntax tree, and the device option's profile (a program names no device). */
+function parseQasmSource(text: string, file: string, problems: ProblemList, options: { device?: string; readDevice?: DeviceReader }): CircuitSource | undefined {
+  const parsed = parseQasm(text);
+  if ('problem' in parsed) {
+    problems.error({ file, ...parsed.problem.at }, 'qasm-syntax', parsed.problem.message);
+    return undefined;
+  }
+  let deviceSpec: ProfileSpec | undefined;
+  if (options.device !== undefined) {
+    const at = fileStart(options.device);
+    if (options.readDevice === undefined) {
+      problems.error(at, 'no-device-reader', `a device '${options.device}' was given but no file reader`);
+      return undefined;
+    }
+    const dev = options.readDevice(options.device, at);
+    if (dev === undefined) return undefined;
+    deviceSpec = parseProfileText(dev.text, dev.file, problems);
+    if (deviceSpec === undefined) return undefined;
+  }
+  if (!problems.ok) return undefined;
+  return { file, root: undefined, qasm: parsed.program, deviceSpec, warnings: problems.warnings };
+}
+
+/** The typed circuit of a source: the YAML reader or the OpenQASM one (which has no parameters to set). */
+function readSourceCircuit(source: CircuitSource, params: Readonly<Record<string, string>>, problems: ProblemList): Circuit | undefined {
+  if (source.qasm === undefined) return readCircuitTree(source.root!, source.file, problems, { set: params });
+  for (const name of Object.keys(params)) {
+    problems.error({ file: COMMAND_LINE, line: 1, col: 1 }, 'unknown-param', `--set ${name}: an OpenQASM program has no parameters to set (profile fields such as gates.cx.error can be set)`);
+  }
+  return lowerQasm(source.qasm, source.file, problems);
+}
+
 /** The overrides of LoadOptions.set as a list (a record keeps its insertion order). */
 export function overrideList(set: LoadOptions['set']): Override[] {
   if (set === undefined) return [];
@@ -124,7 +161,7 @@ export function instantiate(source: CircuitSource, problems: ProblemList, option
     const explained = explainCommandLine(problems.items, split.texts);
     problems.items.splice(0, problems.items.length, ...explained);
   };
-  const circuit = readCircuitTree(source.root, source.file, problems, { set: split.params });
+  const circuit = readSourceCircuit(source, split.params, problems);
   if (circuit === undefined || !problems.ok) return finish(), undefined;
   const specs: ProfileSpec[] = [];
   if (source.deviceSpec !== undefined) specs.push(source.deviceSpec);

@@ -4,7 +4,7 @@ import { referenceKernels, type Kernels } from '../engine/kernels.js';
 import type { DensityMatrix } from '../engine/layout.js';
 import { checkMemory, checkRecordMemory, defaultMemoryLimit, MemoryLimitError } from '../engine/memory.js';
 import { MAX_IDEAL_BRANCHES, runIdeal, runNoisy } from '../engine/run.js';
-import { runCompiled, THREADS_MIN_QUBITS } from '../engine/runCompiled.js';
+import { kernelFamilyOf, runCompiled, THREADS_MIN_QUBITS } from '../engine/runCompiled.js';
 import { fastBranchEngine, referenceBranchEngine, runBranches, runIdealBranches, segments, type BranchEnsemble, type IdealEnsemble } from '../engine/branches.js';
 import { maxBranches } from '../engine/recordProgram.js';
 import { densityMatrixBytes, stateVectorBytes } from '../engine/layout.js';
@@ -12,6 +12,7 @@ import type { ThreadPool } from '../engine/threadPool.js';
 import { branchWeights, computeRecordFigures } from '../results/recordFigures.js';
 import { defaultThreads, sharedThreadPool } from '../engine/threadPool.js';
 import { WARM_MIN_QUBITS, warmKernels } from '../engine/warmKernels.js';
+import { kernelFamilyFor, type KernelFamily } from '../engine/wasmKernels.js';
 import { buildPlan } from '../plan/buildPlan.js';
 import { compilePlan } from '../plan/compilePlan.js';
 import type { Plan, PlannedSegment } from '../plan/plan.js';
@@ -49,6 +50,22 @@ export interface SimulateOptions {
   readonly threads?: number;
   /** Fuse instructions into as few passes as possible (default true); false = one general kernel call per instruction. */
   readonly fuse?: boolean;
+  /**
+   * Kernels of the fast engine's real-form passes: 'wasm' the WebAssembly SIMD kernels where ρ
+   * fits in WebAssembly memory (up to 13 qubits), else the JS ones; 'js' always the JS kernels;
+   * by default 'wasm' from 8 qubits on (WASM_MIN_QUBITS). Both give bit-for-bit the same ρ.
+   */
+  readonly kernelFamily?: KernelFamily;
+}
+
+/**
+ * What ran the noisy run: 'wasm' = WebAssembly SIMD kernels for the real-form passes (the
+ * diagonal and general passes always run in JS), 'js' = JS kernels throughout, 'reference' =
+ * the instruction-by-instruction reference engine; and how many threads shared each pass.
+ */
+export interface EngineInfo {
+  readonly kernels: KernelFamily | 'reference';
+  readonly threads: number;
 }
 
 /** The JSON object of `fray run --json` (the contract's keys plus a few of fray's own). */
@@ -77,6 +94,8 @@ export interface RunResult {
   readonly shots?: number;
   readonly seed?: number;
   readonly counts?: Figures['counts'];
+  /** Which kernels ran and on how many threads (EngineInfo). */
+  readonly engine: EngineInfo;
   readonly warnings: readonly string[];
 }
 
@@ -135,6 +154,8 @@ export interface PlannedRun {
   readonly program: Program;
   /** The plan of the noisy run (record mode: of its instructions outside any segment, i.e. empty; see `segments`). */
   readonly plan: Plan;
+  /** The kernel family the real-form passes would run on (SimulateOptions.kernelFamily, where it can run). */
+  readonly kernels: KernelFamily;
   /** Record mode: the noisy run's segments in order, each run of instructions with its own plan. */
   readonly segments?: readonly PlannedSegment[];
   /** Record mode: the record's bit names in order. */
@@ -190,13 +211,14 @@ export function planLoaded(loaded: LoadedCircuit, options: SimulateOptions = {})
   const { schedule, program, problems } = prepare(loaded, options);
   const planOptions = { fuse: options.fuse !== false, keepDiagonal: hasDrift(loaded.profile) };
   const plan = buildPlan(program.n, program.noisy, planOptions);
-  if (program.record === null) return { schedule, program, plan, problems };
+  const kernels = kernelFamilyFor(program.n, options.kernelFamily);
+  if (program.record === null) return { schedule, program, plan, kernels, problems };
   const planned = segments(program.record.noisy).map((seg): PlannedSegment =>
     seg.kind === 'measure'
       ? { kind: 'measure', qubit: seg.qubit, bit: seg.bit }
       : { kind: 'apply', ...(seg.when !== undefined ? { when: seg.when } : {}), plan: buildPlan(program.n, seg.instructions, planOptions), origins: seg.origins },
   );
-  return { schedule, program, plan, segments: planned, bits: loaded.circuit.bits ?? [], problems };
+  return { schedule, program, plan, kernels, segments: planned, bits: loaded.circuit.bits ?? [], problems };
 }
 
 /** Reads a circuit file and returns its plan (`fray run --plan`). Throws InputError on bad input. */
@@ -213,21 +235,26 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
   const threads = options.threads ?? defaultThreads();
   if (fast && (!Number.isInteger(threads) || threads < 1)) throw new RangeError(`simulate: threads must be a whole number ≥ 1, not ${threads}`);
   // start the workers first: they boot and warm up while this thread schedules, plans and warms its own kernels
-  const pool = fast && threads > 1 && n >= THREADS_MIN_QUBITS ? sharedThreadPool(threads) : undefined;
-  if (fast && n >= WARM_MIN_QUBITS) warmKernels();
+  const family = kernelFamilyFor(n, options.kernelFamily);
+  const pool = fast && threads > 1 && n >= THREADS_MIN_QUBITS ? sharedThreadPool(threads, family === 'js') : undefined;
+  // the WebAssembly kernels need no JIT warm-up; the JS ones do
+  if (fast && family === 'js' && n >= WARM_MIN_QUBITS) warmKernels();
   const { schedule, program, problems } = prepare(loaded, options);
   if (program.record !== null) return simulateRecord(loaded, options, schedule, program, problems, fast ? pool : undefined, fast);
   refuseOverMemory(circuit, problems, () => checkMemory(n, idealStaysOnVectors(program), options.maxMemoryBytes ?? defaultMemoryLimit()));
   let rho: DensityMatrix;
   let plan: Plan | undefined;
   let ideal: IdealState;
+  let engine: EngineInfo;
   if (!fast) {
+    engine = { kernels: 'reference', threads: 1 };
     const kernels = options.kernels ?? referenceKernels;
     rho = runNoisy(n, program.noisy, kernels);
     ideal = runIdeal(n, program.ideal, kernels);
   } else {
     plan = buildPlan(n, program.noisy, { fuse: options.fuse !== false, keepDiagonal: hasDrift(profile) });
-    rho = runCompiled(compilePlan(plan), pool);
+    rho = runCompiled(compilePlan(plan), pool, THREADS_MIN_QUBITS, family);
+    engine = { kernels: kernelFamilyOf(rho), threads: pool !== undefined ? pool.parts : 1 };
     ideal = runIdeal(n, program.ideal, fastKernels);
   }
   const measured = measuredQubits(circuit);
@@ -239,7 +266,7 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
     observe,
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED } : {}),
   });
-  const result = runResult(loaded, schedule, figures, measured, null, options, problems);
+  const result = runResult(loaded, schedule, figures, measured, null, options, problems, engine);
   return { circuit, profile, schedule, program, ...(plan !== undefined ? { plan } : {}), rho, ideal, result, warnings: problems.warnings };
 }
 
@@ -274,7 +301,8 @@ function simulateRecord(
     observe,
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED } : {}),
   });
-  const result = runResult(loaded, schedule, figures, [], bits, options, problems);
+  const engineInfo: EngineInfo = fast ? { kernels: 'js', threads: pool !== undefined && n >= THREADS_MIN_QUBITS ? pool.parts : 1 } : { kernels: 'reference', threads: 1 };
+  const result = runResult(loaded, schedule, figures, [], bits, options, problems, engineInfo);
   return { circuit, profile, schedule, program, rho, ideal, branches: { noisy, ideal: idealBranches }, result, warnings: problems.warnings };
 }
 
@@ -287,6 +315,7 @@ function runResult(
   bits: readonly string[] | null,
   options: SimulateOptions,
   problems: ProblemList,
+  engine: EngineInfo,
 ): RunResult {
   const { circuit, profile } = loaded;
   const labels = circuit.register.labels;
@@ -310,6 +339,7 @@ function runResult(
     bloch: figures.bloch,
     ...(figures.observables !== undefined ? { observables: figures.observables } : {}),
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED, counts: figures.counts } : {}),
+    engine,
     warnings: problems.warnings.map((w) => `${w.file}:${w.line}:${w.col}: ${w.message}`),
   };
 }

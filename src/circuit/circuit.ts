@@ -20,6 +20,8 @@ export interface Circuit {
   readonly channels: ReadonlyMap<string, CustomChannel>;
   /** Arity of every gate name usable in this circuit (built-in and custom), for profile keys. */
   readonly gateArity: ReadonlyMap<string, number>;
+  /** The custom gates' definitions by name, in the order written (for writing the circuit out again). */
+  readonly definitions?: ReadonlyMap<string, GateDefinition>;
   /** Names of the composite gates (custom gates defined by `steps`). */
   readonly compositeGates: ReadonlySet<string>;
   /** Pauli strings to report, qubit 0 leftmost. */
@@ -80,12 +82,42 @@ export interface NoiseOverride {
   readonly at: SourcePosition;
 }
 
+/** A custom matrix gate: its unitary on `qubits` qubits (first target = leftmost factor). */
+export interface MatrixGateDefinition {
+  readonly kind: 'matrix';
+  readonly name: string;
+  readonly qubits: number;
+  readonly matrix: CMatrix;
+}
+
+/** One gate inside a composite: local target qubits 0..k−1 and angle expressions (src/circuit/expression.ts syntax) over the composite's params. */
+export interface CompositeStep {
+  readonly gate: string;
+  readonly targets: readonly number[];
+  readonly angles: readonly string[];
+}
+
+/** A composite gate: one gate for noise and scheduling whose unitary is its steps' product. */
+export interface CompositeGateDefinition {
+  readonly kind: 'composite';
+  readonly name: string;
+  readonly qubits: number;
+  /** Angle parameter names (radians), in call order. */
+  readonly params: readonly string[];
+  readonly steps: readonly CompositeStep[];
+}
+
+/** A custom gate as written in the circuit (matrix or composite). */
+export type GateDefinition = MatrixGateDefinition | CompositeGateDefinition;
+
 /** One gate application: its exact unitary on `qubits` (first = leftmost factor). */
 export interface GateOperation extends OperationBase {
   readonly kind: 'gate';
   readonly name: string;
   readonly qubits: readonly number[];
   readonly unitary: CMatrix;
+  /** The evaluated angles (radians, in the gate's parameter order) when the gate takes any. */
+  readonly angles?: readonly number[];
   readonly noise?: NoiseOverride;
   readonly condition?: Condition;
   /** Composite gates: the parts in order, on circuit qubits (used when the profile says `split: true`). */

@@ -66,6 +66,16 @@ export function evaluateComplex(
   return { value: [r.value.re + 0, r.value.im + 0] };
 }
 
+/** Parses an expression into its syntax tree without evaluating it (for printing it in another syntax). */
+export function parseExpression(src: string, imaginaryUnit = false): { tree: ExpressionNode } | { error: ExpressionError } {
+  try {
+    return { tree: new Parser(tokenize(src, imaginaryUnit), src.length).parseAll() };
+  } catch (e) {
+    if (e instanceof Fail) return fail(e.message, e.offset);
+    throw e;
+  }
+}
+
 // ─── internals ──────────────────────────────────────────────────────────────────────
 
 type Token =
@@ -74,12 +84,15 @@ type Token =
   | { kind: 'sym'; text: string; at: number } // + - * / ^ ( ) ,
   | { kind: 'end'; text: ''; at: number };
 
-type Node =
+/** A parsed expression (the syntax tree the evaluator walks); `at` is a 0-based offset, `depth` the subtree height. */
+export type ExpressionNode =
   | { k: 'num'; re: number; im: number; at: number; depth: number }
   | { k: 'name'; name: string; at: number; depth: number }
   | { k: 'neg'; arg: Node; at: number; depth: number }
   | { k: 'bin'; op: string; l: Node; r: Node; at: number; depth: number }
   | { k: 'call'; fn: string; arg: Node; at: number; depth: number };
+
+type Node = ExpressionNode;
 
 /** Thrown inside the parser/evaluator, caught once at the top. */
 class Fail {

@@ -31,7 +31,7 @@ function pauliRotation(p: CMatrix, theta: number): CMatrix {
 }
 
 /** The controlled gate |0⟩⟨0| ⊗ I + |1⟩⟨1| ⊗ U (control = the new leftmost qubit). */
-function controlled(u: CMatrix): CMatrix {
+export function controlled(u: CMatrix): CMatrix {
   const d = u.rows;
   const out = zeros(2 * d, 2 * d);
   const n = 2 * d;
@@ -112,7 +112,26 @@ const TABLE: readonly GateDef[] = [
   gate('rzz', 2, TH, ([t]) => diag([cis(-t! / 2), cis(t! / 2), cis(t! / 2), cis(-t! / 2)])),
   gate('ccx', 3, [], () => controlled(controlled(pauliX()))),
   gate('cswap', 3, [], () => controlled(swapMatrix())),
+  // OpenQASM's names (qelib1.inc and stdgates.inc), each its own gate for noise profiles:
+  // u3 = u, u2(φ, λ) = u(π/2, φ, λ), u1 = p, cu1 = cp, cu3 = controlled u,
+  // cu(θ, φ, λ, γ) = controlled e^{iγ}·u(θ, φ, λ), csx = controlled sx, c3x / c4x = X with 3 / 4 controls.
+  gate('u1', 1, LA, ([l]) => diag([1, cis(l!)])),
+  gate('u2', 1, ['phi', 'lambda'], ([p, l]) => u3(Math.PI / 2, p!, l!)),
+  gate('u3', 1, ['theta', 'phi', 'lambda'], ([t, p, l]) => u3(t!, p!, l!)),
+  gate('cu1', 2, LA, ([l]) => diag([1, 1, 1, cis(l!)])),
+  gate('cu3', 2, ['theta', 'phi', 'lambda'], ([t, p, l]) => controlled(u3(t!, p!, l!))),
+  gate('cu', 2, ['theta', 'phi', 'lambda', 'gamma'], ([t, p, l, g]) => controlled(scale(u3(t!, p!, l!), Math.cos(g!), Math.sin(g!)))),
+  gate('csx', 2, [], () => controlled(fromRows([[[0.5, 0.5], [0.5, -0.5]], [[0.5, -0.5], [0.5, 0.5]]]))),
+  gate('c3x', 4, [], () => controlled(controlled(controlled(pauliX())))),
+  gate('c4x', 5, [], () => controlled(controlled(controlled(controlled(pauliX()))))),
 ];
+
+/**
+ * The built-ins added under OpenQASM's header names. A circuit's own custom gate of one of
+ * these names takes precedence over the built-in, so circuits written before they existed
+ * keep their meaning.
+ */
+export const OPENQASM_NAMED_GATES: ReadonlySet<string> = new Set(['u1', 'u2', 'u3', 'cu1', 'cu3', 'cu', 'csx', 'c3x', 'c4x']);
 
 /** Alternative names of built-in gates → the gate's own name (`id` is `i`: one gate, one profile entry). */
 export const GATE_ALIASES: ReadonlyMap<string, string> = new Map([['id', 'i']]);

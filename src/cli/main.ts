@@ -5,6 +5,10 @@ import { channelCommand, type ChannelCommandOptions } from './channelCommand.js'
 import { schemaCommand } from './schemaCommand.js';
 import { makeStyle, wantColor } from './style.js';
 import { renderProblems } from './problems.js';
+import { parseWholeNumber } from './wholeNumber.js';
+import { MAX_SHOTS } from '../results/sampling.js';
+import { addFormatCommands } from './formatCommands.js';
+import { isQasmPath, loadQasmToolkit } from '../format/qasm/index.js';
 import { addTargetOptions, collect, collectLayout, parseLayout, parseNoiseScale, parsePositiveInt } from './options.js';
 
 /** Exit statuses of the fray command: success, internal error, input error, a failed `--require`. */
@@ -27,6 +31,8 @@ export async function main(argv: readonly string[], io: CliIO = { stdout: proces
   let status: number = EXIT.ok;
   const program = buildProgram(io, (code) => (status = code));
   try {
+    // the OpenQASM parser toolkit loads only for commands given a .qasm file (see src/format/qasm/toolkit.ts)
+    if (argv.some(isQasmPath)) await loadQasmToolkit();
     await program.parseAsync([...argv], { from: 'user' });
     return status;
   } catch (e) {
@@ -90,13 +96,13 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
   const run = program
     .command('run')
     .description('simulate one circuit file: ideal and noisy runs, fidelities, outcome table')
-    .argument('<file>', 'circuit file (YAML)')
+    .argument('<file>', 'circuit file (YAML, or an OpenQASM 2.0/3 program ending in .qasm)')
     .option('--json', 'print one JSON object instead of the report')
     .option('--device <file>', "noise profile to use instead of the circuit's 'device:'")
     .addOption(new Option('--set <key=value...>', 'override a parameter or a profile field (repeatable), e.g. --set theta=0.4 --set qubits.all.t1=50us --set gates.cx.error=none'))
     .option('--noise-scale <c>', 'multiply every noise strength by C ≥ 0 (rates 1/T1 and 1/T2, probabilities, error, readout)', parseNoiseScale)
     .option('--layout <p0,p1,...>', 'place circuit qubit i on device qubit P_i: the device profile is read at those qubits', parseLayout)
-    .option('--shots <n>', 'also sample this many shots from the measured distribution', parseShots)
+    .option('--shots <n>', 'also sample this many shots from the measured distribution (a whole number up to 2^53, e.g. 1e6)', parseShots)
     .option('--seed <s>', 'seed of the shot sampler (default 1); the same seed gives the same counts everywhere', parseSeed)
     .addOption(new Option('--observe <pauli...>', 'report ⟨P⟩ for Pauli strings, qubit 0 leftmost (repeatable or comma-separated), e.g. --observe ZZI,XXX'))
     .option('--top <k>', 'how many outcomes the report lists (default 8)', parseTop, 8)
@@ -107,6 +113,12 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .option('--plan', 'print the plan of kernel calls (what is fused into each pass over the density matrix) instead of running')
     .option('--threads <n>', 'threads sharing each pass on 9+ qubits (default: the machine\'s cores; 1 = off)', parseThreads)
     .option('--no-fuse', 'apply every gate and channel as its own pass (slower; for comparison)')
+    .addOption(
+      new Option('--kernels <family>', 'kernels of the fused passes: wasm (WebAssembly SIMD, up to 13 qubits) or js (same results); default wasm from 8 qubits').choices([
+        'wasm',
+        'js',
+      ]),
+    )
     .option('--no-color', 'plain text even on a terminal (NO_COLOR is respected too)')
     .addHelpText(
       'after',
@@ -274,6 +286,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
   // the options shared with run, listed after the command's own
   addTargetOptions(budget, 'multiply every noise strength by C first');
   budget.exitOverride();
+  addFormatCommands(program, io);
 
   program
     .command('schema')
@@ -285,10 +298,13 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
   return program;
 }
 
+/** --shots: a whole number from 1 to 2^53 (MAX_SHOTS) in any integer notation of parseWholeNumber, e.g. 1e6. */
 function parseShots(v: string): number {
-  const n = Number(v);
-  if (!/^\d+$/.test(v) || !Number.isSafeInteger(n) || n < 1) throw new UsageError(`--shots ${v}: expected a whole number of shots, 1 or more`);
-  return n;
+  const n = parseWholeNumber(v);
+  if (n === undefined || n < 1n || n > BigInt(MAX_SHOTS)) {
+    throw new UsageError(`--shots ${v}: expected a whole number of shots from 1 to 2^53, e.g. 1000, 1e6 or 0x100000`);
+  }
+  return Number(n);
 }
 
 function parseSeed(v: string): number {

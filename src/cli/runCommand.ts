@@ -1,6 +1,7 @@
 import { planFile, simulate } from '../api/simulate.js';
 import { formatPlan, formatRecordPlan, planToJson, recordPlanToJson } from '../plan/formatPlan.js';
 import { parseByteSize } from '../engine/memory.js';
+import type { KernelFamily } from '../engine/wasmKernels.js';
 import { renderRunReport } from './runReport.js';
 import { toJson } from '../results/json.js';
 import { makeStyle, wantColor } from './style.js';
@@ -29,6 +30,7 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
     ...(opts['noiseScale'] !== undefined ? { noiseScale: opts['noiseScale'] as number } : {}),
     ...(opts['layout'] !== undefined ? { layout: opts['layout'] as number[] } : {}),
     fuse: opts['fuse'] !== false,
+    ...(opts['kernels'] !== undefined ? { kernelFamily: opts['kernels'] as KernelFamily } : {}),
   };
   const html = opts['html'] as string | undefined;
   if (html !== undefined && opts['plan'] === true) throw new UsageError('--html draws a run; --plan does not run the circuit: give one of them');
@@ -40,7 +42,7 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
       return;
     }
     const origins = planned.program.origins;
-    io.stdout.write(opts['json'] ? toJson(planToJson(planned.plan, origins)) + '\n' : formatPlan(planned.plan, origins));
+    io.stdout.write(opts['json'] ? toJson(planToJson(planned.plan, origins, planned.kernels)) + '\n' : formatPlan(planned.plan, origins, planned.kernels));
     return;
   }
   const sim = simulate(file, options);

@@ -45,11 +45,13 @@ export function referenceBranchEngine(kernels: Kernels = referenceKernels): Bran
 /**
  * The fast engine's branches: shared memory, each run of instructions prepared once as a compiled
  * plan (fused unless `plan.fuse` is false) and applied with `pool`'s threads on large registers.
+ * Branches run the JS kernels: an ensemble holds many registers at once, and every WebAssembly
+ * memory reserves its own large range of address space.
  */
 export function fastBranchEngine(plan: BuildPlanOptions = {}, pool?: ThreadPool): BranchEngine {
   return {
-    allocate: (n) => zeroMatrix(createSharedDensityMatrix(n)),
-    initial: createSharedDensityMatrix,
+    allocate: (n) => zeroMatrix(createSharedDensityMatrix(n, 'js')),
+    initial: (n) => createSharedDensityMatrix(n, 'js'),
     prepare: (n, instructions) => {
       const compiled = compilePlan(buildPlan(n, instructions, plan));
       return (rho) => applyCompiled(rho, compiled, pool);

@@ -11,7 +11,9 @@
 import { applyDiagonal } from './kernelDiagonal.js';
 import { applyGeneral } from './kernelGeneral.js';
 import { applyReal1, applyReal1Tp } from './kernelReal1.js';
-import { applyReal2 } from './kernelReal2.js';
+import { applyReal2, MIRROR_TILE } from './kernelReal2.js';
+import { partStart, trianglePartStart } from './partition.js';
+import { scratchAt, type WasmBinding } from './wasmKernels.js';
 
 /**
  * Numeric ids of the kernels: real-form 1-qubit, real-form mirrored 2-qubit, diagonal batch,
@@ -52,11 +54,30 @@ export function encodeCall(call: KernelCall, words: Int32Array, at: number): num
   return i;
 }
 
-/** Executes the call encoded at words[at …] on the n-qubit ρ (`data`), for part `part` of `parts` (./partition.ts). */
-export function executeCall(data: Float64Array, n: number, words: Int32Array, at: number, arena: Float64Array, part: number, parts: number): void {
+/**
+ * Executes the call encoded at words[at …] on the n-qubit ρ (`data`), for part `part` of `parts`
+ * (./partition.ts). With `wasm` (this thread's instance over the WebAssembly memory holding
+ * `data`, and `arena` loaded there too) the real-form calls run the WebAssembly kernels, the
+ * others the JS ones; both families give the same bits.
+ */
+export function executeCall(data: Float64Array, n: number, words: Int32Array, at: number, arena: Float64Array, part: number, parts: number, wasm?: WasmBinding): void {
   const id = words[at]!;
   const off = words[at + 1]!;
   const kA = words[at + 3]!;
+  if (wasm !== undefined && (id === KERNEL_IDS.real1 || id === KERNEL_IDS.real1tp || id === KERNEL_IDS.real2)) {
+    const mat = wasm.arenaAt + 8 * off;
+    if (id === KERNEL_IDS.real2) {
+      const tiles = Math.ceil((1 << n) / 4 / MIRROR_TILE);
+      const t0 = trianglePartStart(tiles, part, parts);
+      const t1 = trianglePartStart(tiles, part + 1, parts);
+      wasm.kernels.real2(wasm.rhoAt, n, words[at + 5]!, words[at + 6]!, mat, scratchAt(part), MIRROR_TILE, t0, t1);
+    } else {
+      const rows = (1 << n) >> 1;
+      const k = id === KERNEL_IDS.real1 ? wasm.kernels.real1 : wasm.kernels.real1tp;
+      k(wasm.rhoAt, n, words[at + 5]!, mat, scratchAt(part), partStart(rows, part, parts), partStart(rows, part + 1, parts));
+    }
+    return;
+  }
   switch (id) {
     case KERNEL_IDS.real1:
       applyReal1(data, n, words[at + 5]!, arena, off, part, parts);

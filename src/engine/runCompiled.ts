@@ -9,6 +9,7 @@ import type { DensityMatrix } from './layout.js';
 import { checkQubitCount } from './targets.js';
 import type { ThreadPool } from './threadPool.js';
 import { awaitOptimisedKernels, WARM_MIN_QUBITS } from './warmKernels.js';
+import { createWasmRegister, kernelFamilyFor, WASM_MAX_PARTS, wasmKernelModule, wasmRegisterOf, type KernelFamily } from './wasmKernels.js';
 
 /**
  * Smallest register on which passes are split over threads. Measured on the 2-vCPU bench
@@ -17,27 +18,44 @@ import { awaitOptimisedKernels, WARM_MIN_QUBITS } from './warmKernels.js';
  */
 export const THREADS_MIN_QUBITS = 9;
 
-/** The n-qubit |0…0⟩⟨0…0| in the layout of ./layout.ts, backed by a SharedArrayBuffer so worker threads can share it. */
-export function createSharedDensityMatrix(n: number): DensityMatrix {
+/**
+ * The n-qubit |0…0⟩⟨0…0| in the layout of ./layout.ts, backed by a SharedArrayBuffer so worker
+ * threads can share it: inside a WebAssembly.Memory when `kernels` is 'wasm' and the WebAssembly
+ * kernels can run n qubits (kernelFamilyFor), so the passes applied to it run them; else a plain
+ * SharedArrayBuffer for the JS kernels.
+ */
+export function createSharedDensityMatrix(n: number, kernels: KernelFamily = 'wasm'): DensityMatrix {
   checkQubitCount(n, 'createSharedDensityMatrix');
   const dim = 1 << n;
+  if (kernelFamilyFor(n, kernels) === 'wasm') return { n, dim, data: createWasmRegister(n, wasmKernelModule()!).data };
   const data = new Float64Array(new SharedArrayBuffer(16 * dim * dim));
   data[0] = 1;
   return { n, dim, data };
 }
 
+/** The kernel family whose real-form kernels run the passes applied to `rho` ('wasm' when it lives in WebAssembly memory). */
+export function kernelFamilyOf(rho: DensityMatrix): KernelFamily {
+  return wasmRegisterOf(rho.data) !== undefined ? 'wasm' : 'js';
+}
+
 /**
  * Applies every call of `plan` in order to `rho` (in place), split over `pool` when
  * n ≥ minThreadQubits (THREADS_MIN_QUBITS by default; tests lower it to split small registers).
+ * The real-form calls run the WebAssembly kernels when `rho` lives in WebAssembly memory
+ * (createSharedDensityMatrix), else the JS kernels, which wait for the JIT on large registers.
  */
 export function applyCompiled(rho: DensityMatrix, plan: CompiledPlan, pool?: ThreadPool, minThreadQubits = THREADS_MIN_QUBITS): void {
   if (plan.n !== rho.n) throw new RangeError(`applyCompiled: plan for ${plan.n} qubits, register of ${rho.n}`);
   const n = rho.n;
-  if (n >= WARM_MIN_QUBITS) awaitOptimisedKernels();
   const wantThreads = pool !== undefined && n >= minThreadQubits && rho.data.buffer instanceof SharedArrayBuffer;
   if (wantThreads) pool.ready();
+  // (a pool beyond WASM_MAX_PARTS parts, which the scratch area cannot serve, runs the JS kernels on the same memory)
+  const reg = wantThreads && pool.parts > WASM_MAX_PARTS ? undefined : wasmRegisterOf(rho.data);
+  reg?.loadArena(plan.arena);
+  const wasm = reg?.bind();
+  if (reg === undefined && n >= WARM_MIN_QUBITS) awaitOptimisedKernels();
   if (wantThreads && pool.parts > 1) {
-    pool.attach(rho.data, plan.arena, plan.words);
+    pool.attach(rho.data, plan.arena, plan.words, reg?.handle());
     try {
       for (const at of plan.starts) pool.run(n, at);
     } finally {
@@ -45,12 +63,15 @@ export function applyCompiled(rho: DensityMatrix, plan: CompiledPlan, pool?: Thr
     }
     return;
   }
-  for (const at of plan.starts) executeCall(rho.data, n, plan.words, at, plan.arena, 0, 1);
+  for (const at of plan.starts) executeCall(rho.data, n, plan.words, at, plan.arena, 0, 1, wasm);
 }
 
-/** Final density matrix of `plan` applied to |0…0⟩⟨0…0| (one shared-memory ρ); threads as in applyCompiled. */
-export function runCompiled(plan: CompiledPlan, pool?: ThreadPool, minThreadQubits = THREADS_MIN_QUBITS): DensityMatrix {
-  const rho = createSharedDensityMatrix(plan.n);
+/**
+ * Final density matrix of `plan` applied to |0…0⟩⟨0…0| (one shared-memory ρ); threads as in
+ * applyCompiled; `kernels` 'js' keeps the real-form passes on the JS kernels.
+ */
+export function runCompiled(plan: CompiledPlan, pool?: ThreadPool, minThreadQubits = THREADS_MIN_QUBITS, kernels: KernelFamily = 'wasm'): DensityMatrix {
+  const rho = createSharedDensityMatrix(plan.n, kernels);
   applyCompiled(rho, plan, pool, minThreadQubits);
   return rho;
 }

@@ -25,6 +25,7 @@ import {
   CTRL_READY,
   CTRL_SLOTS,
 } from './threadControl.js';
+import { bindWasm, type WasmBinding, type WasmRegisterHandle } from './wasmKernels.js';
 
 /** How long (ms) the pool waits for its workers to start and warm up before running single-threaded. */
 export const WORKER_START_TIMEOUT_MS = 20_000;
@@ -47,7 +48,7 @@ export class ThreadPool {
   private readonly ctrl: Int32Array;
   private readonly workers: Worker[] = [];
   private readonly ports: MessagePort[] = [];
-  private attached: { data: Float64Array; arena: Float64Array; words: Int32Array } | undefined;
+  private attached: { data: Float64Array; arena: Float64Array; words: Int32Array; wasm: WasmBinding | undefined } | undefined;
   /** Number of parts a pass is split into: the workers that started plus the main thread (final after ready()). */
   parts = 1;
   private pending = 0;
@@ -55,10 +56,14 @@ export class ThreadPool {
   note: string | undefined;
 
   /**
-   * Starts threads − 1 workers without waiting for them (they boot and warm up while the
-   * caller goes on); the first attach() waits. Falls back to 1 thread when they cannot start.
+   * Starts threads − 1 workers without waiting for them (they boot, and warm up the JS kernels
+   * when `warmJs`, else the WebAssembly ones, while the caller goes on); the first attach() waits. Falls back to 1 thread
+   * when they cannot start.
    */
-  constructor(readonly threads: number) {
+  constructor(
+    readonly threads: number,
+    warmJs = true,
+  ) {
     this.ctrl = new Int32Array(new SharedArrayBuffer(4 * CTRL_SLOTS));
     const want = Math.max(0, Math.floor(threads) - 1);
     if (want === 0) return;
@@ -69,7 +74,7 @@ export class ThreadPool {
     }
     for (let i = 0; i < want; i++) {
       const { port1, port2 } = new MessageChannel();
-      const w = new Worker(script, { workerData: { ctrl: this.ctrl.buffer, part: i + 1, port: port2 }, transferList: [port2] });
+      const w = new Worker(script, { workerData: { ctrl: this.ctrl.buffer, part: i + 1, port: port2, warmJs }, transferList: [port2] });
       w.unref();
       port1.unref();
       w.on('error', () => undefined);
@@ -104,15 +109,19 @@ export class ThreadPool {
     return this.parts - 1;
   }
 
-  /** Hands the shared register, arena and words to the workers (all three must be SharedArrayBuffer-backed). */
-  attach(data: Float64Array, arena: Float64Array, words: Int32Array): void {
+  /**
+   * Hands the shared register, arena and words to the workers (all three must be
+   * SharedArrayBuffer-backed); with `wasm` (the register's WebAssembly memory, arena loaded)
+   * every thread runs the real-form calls on the WebAssembly kernels.
+   */
+  attach(data: Float64Array, arena: Float64Array, words: Int32Array, wasm?: WasmRegisterHandle): void {
     this.ready();
     if (this.parts === 1) return;
     const a = this.attached;
     if (a !== undefined && a.data === data && a.arena === arena && a.words === words) return;
-    for (const p of this.ports) p.postMessage({ data, arena, words });
+    for (const p of this.ports) p.postMessage({ data, arena, words, wasm });
     this.command(CMD_ATTACH);
-    this.attached = { data, arena, words };
+    this.attached = { data, arena, words, wasm: wasm !== undefined ? bindWasm(wasm) : undefined };
   }
 
   /** Runs the attached call at words[at] on the n-qubit attached register, split over every thread. */
@@ -126,7 +135,7 @@ export class ThreadPool {
     this.start(CMD_RUN);
     let mainError: unknown;
     try {
-      executeCall(a.data, n, a.words, at, a.arena, 0, this.parts);
+      executeCall(a.data, n, a.words, at, a.arena, 0, this.parts, a.wasm);
     } catch (e) {
       mainError = e;
     }
@@ -181,11 +190,14 @@ export class ThreadPool {
 
 let shared: ThreadPool | undefined;
 
-/** The process-wide pool for `threads` threads (created on first use, replaced when the count changes; reusable across runs). */
-export function sharedThreadPool(threads: number): ThreadPool {
+/**
+ * The process-wide pool for `threads` threads (created on first use, replaced when the count
+ * changes; reusable across runs); a new pool's workers warm the JS kernels when `warmJs`, else the WebAssembly ones.
+ */
+export function sharedThreadPool(threads: number, warmJs = true): ThreadPool {
   if (shared !== undefined && shared.threads === threads) return shared;
   shared?.close();
-  shared = new ThreadPool(threads);
+  shared = new ThreadPool(threads, warmJs);
   return shared;
 }
 

@@ -1,6 +1,7 @@
 /**
- * Entry point of a worker thread of ./threadPool.ts: warms its kernels, reports ready, then
- * blocks on the control block and executes its part of each kernel call on the shared ρ.
+ * Entry point of a worker thread of ./threadPool.ts: warms its JS or WebAssembly kernels, reports
+ * ready, then blocks on the control block and executes its part of each kernel call on the
+ * shared ρ — on the WebAssembly kernels when the attached register lives in WebAssembly memory.
  */
 import { receiveMessageOnPort, workerData, type MessagePort } from 'node:worker_threads';
 import { executeCall } from './kernelCall.js';
@@ -17,23 +18,28 @@ import {
   CTRL_PARTS,
   CTRL_READY,
 } from './threadControl.js';
-import { awaitOptimisedKernels } from './warmKernels.js';
+import { awaitOptimisedKernels, warmKernels } from './warmKernels.js';
+import { bindWasm, warmWasmKernels, type WasmBinding, type WasmRegisterHandle } from './wasmKernels.js';
 
 /** The buffers a worker works on, as posted by ThreadPool.attach. */
 interface Attachment {
   readonly data: Float64Array;
   readonly arena: Float64Array;
   readonly words: Int32Array;
+  readonly wasm?: WasmRegisterHandle;
 }
 
 function workerLoop(): void {
   const ctrl = new Int32Array(workerData.ctrl as SharedArrayBuffer);
   const part = workerData.part as number;
   const port = workerData.port as MessagePort;
-  awaitOptimisedKernels();
+  // the kernels compile while the main thread reads and plans the circuit
+  if (workerData.warmJs !== false) warmKernels();
+  else warmWasmKernels();
   Atomics.add(ctrl, CTRL_READY, 1);
   Atomics.notify(ctrl, CTRL_READY);
   let current: Attachment | undefined;
+  let wasm: WasmBinding | undefined;
   let gen = 0;
   for (;;) {
     Atomics.wait(ctrl, CTRL_GEN, gen);
@@ -45,10 +51,13 @@ function workerLoop(): void {
         const msg = receiveMessageOnPort(port);
         current = msg?.message as Attachment | undefined;
         if (current === undefined) throw new Error('no attachment posted');
+        wasm = current.wasm !== undefined ? bindWasm(current.wasm) : undefined;
+        if (wasm === undefined) awaitOptimisedKernels();
       } else if (cmd === CMD_DETACH) {
         current = undefined;
+        wasm = undefined;
       } else if (current !== undefined) {
-        executeCall(current.data, ctrl[CTRL_N]!, current.words, ctrl[CTRL_AT]!, current.arena, part, ctrl[CTRL_PARTS]!);
+        executeCall(current.data, ctrl[CTRL_N]!, current.words, ctrl[CTRL_AT]!, current.arena, part, ctrl[CTRL_PARTS]!, wasm);
       }
     } catch {
       Atomics.store(ctrl, CTRL_ERROR, 1);

@@ -111,6 +111,7 @@ export function readCircuitTree(
     params,
     channels,
     gateArity,
+    definitions: gates.definitions(),
     compositeGates,
     observe,
     device,

@@ -1,9 +1,10 @@
-import { BUILTIN_GATES } from '../circuit/gates.js';
+import { BUILTIN_GATES, OPENQASM_NAMED_GATES } from '../circuit/gates.js';
 import { sequenceUnitary } from '../circuit/compose.js';
 import { RESERVED_NAMES } from '../circuit/expression.js';
 import { unitarityResidual, type CMatrix } from '../linalg/cmatrix.js';
 import { readAngle } from './angles.js';
 import { qubitsOfDimension, readMatrix } from './matrix.js';
+import type { GateDefinition } from '../circuit/circuit.js';
 import type { ProblemList, SourcePosition } from './problem.js';
 import { asMap, checkKeys, entryOf, readNumber } from './read.js';
 import { checkModifiers, splitStep, STEP_ACTIONS, STEP_MODIFIERS } from './stepShape.js';
@@ -49,11 +50,14 @@ interface SubStep {
 /** Every gate a circuit may use, built-ins first, then its `gates:` map. */
 export class GateLibrary {
   private readonly customs = new Map<string, LibraryGate>();
+  private readonly written = new Map<string, GateDefinition>();
 
   constructor(private readonly circuitParams: Readonly<Record<string, number>>) {}
 
   /** The gate called `name`, if any. */
   get(name: string): LibraryGate | undefined {
+    const own = OPENQASM_NAMED_GATES.has(name) ? this.customs.get(name) : undefined;
+    if (own !== undefined) return own;
     const b = BUILTIN_GATES.get(name);
     if (b !== undefined) {
       return { name: b.name, qubits: b.qubits, params: b.params, kind: 'builtin', unitary: (a) => b.matrix(a) };
@@ -61,9 +65,16 @@ export class GateLibrary {
     return this.customs.get(name);
   }
 
+  /** The custom gates that read without problems, as written (angles as expression text). */
+  definitions(): Map<string, GateDefinition> {
+    const out = new Map<string, GateDefinition>();
+    for (const [name, d] of this.written) if (this.customs.has(name)) out.set(name, d);
+    return out;
+  }
+
   /** Every gate name, built-in and custom. */
   names(): string[] {
-    return [...BUILTIN_GATES.keys(), ...this.customs.keys()];
+    return [...new Set([...BUILTIN_GATES.keys(), ...this.customs.keys()])];
   }
 
   /** Reads the circuit's `gates:` map. */
@@ -78,7 +89,7 @@ export class GateLibrary {
         problems.error(e.keyAt, 'bad-gate-name', `gate name '${e.key}' must be a word of letters, digits and _ starting with a letter`);
         continue;
       }
-      if (BUILTIN_GATES.has(e.key) || reserved.has(e.key)) {
+      if ((BUILTIN_GATES.has(e.key) && !OPENQASM_NAMED_GATES.has(e.key)) || reserved.has(e.key)) {
         problems.error(e.keyAt, 'reserved-gate-name', `'${e.key}' is a built-in gate or a reserved word; give the custom gate another name`);
         continue;
       }
@@ -100,6 +111,7 @@ export class GateLibrary {
           continue;
         }
         this.customs.set(e.key, { name: e.key, qubits: k, params: [], kind: 'matrix', unitary: () => m });
+        this.written.set(e.key, { kind: 'matrix', name: e.key, qubits: k, matrix: m });
         continue;
       }
       checkKeys(def, [...COMPOSITE_GATE_KEYS, 'matrix'], where, problems);
@@ -144,8 +156,11 @@ export class GateLibrary {
     }
     for (const c of composites) {
       const body = this.readCompositeSteps(c.name, c.k, c.stepsNode, problems);
-      if (body !== undefined) bodies.set(c.name, body);
-      else this.customs.delete(c.name);
+      if (body !== undefined) {
+        bodies.set(c.name, body);
+        const steps = body.map((s) => ({ gate: s.gate, targets: s.targets, angles: s.angles.map(angleText) }));
+        this.written.set(c.name, { kind: 'composite', name: c.name, qubits: c.k, params: c.params, steps });
+      } else this.customs.delete(c.name);
     }
     this.checkCycles(bodies, problems);
   }
@@ -239,6 +254,11 @@ export class GateLibrary {
     }
     return sequenceUnitary(k, placed);
   }
+}
+
+/** An angle node as expression text (a number's shortest round-trip form, or the string as written). */
+function angleText(node: YNode): string {
+  return node.kind === 'scalar' ? String(node.value) : '';
 }
 
 /** The angle nodes a step gives for `gate` (`angle` for one, `angles` for several), checked for count. */

@@ -6,7 +6,7 @@ import { describe, type YNode } from './yamlTree.js';
 /** Most qubits a circuit file may declare (far beyond what memory allows; guards 2^n arithmetic). */
 export const MAX_DECLARED_QUBITS = 24;
 
-/** Reads `qubits:` — a count n (qubits 0..n−1) or a list of unique labels. */
+/** Reads `qubits:` — a count n (qubits 0..n−1) or a list of unique labels (words, or `name[index]` as OpenQASM names register elements). */
 export function readRegister(node: YNode, problems: ProblemList): Register | undefined {
   if (node.kind === 'scalar' && typeof node.value === 'number') {
     const n = node.value;
@@ -27,7 +27,7 @@ export function readRegister(node: YNode, problems: ProblemList): Register | und
       }
       const label = String(item.value);
       if (label === 'all' || label.trim() === '' || /\s/.test(label)) {
-        problems.error(item.at, 'bad-label', `'${label}' cannot label a qubit (labels are single words other than 'all')`);
+        problems.error(item.at, 'bad-label', `'${label}' cannot label a qubit (labels are single words such as 'alice' or register elements such as 'q[0]', other than 'all')`);
         ok = false;
       } else if (labels.includes(label)) {
         problems.error(item.at, 'duplicate-label', `qubit label '${label}' is used twice; labels must be unique`);

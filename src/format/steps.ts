@@ -153,7 +153,7 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList, 
         const local = gate.kind === 'composite' ? partsOf(gate.name, angles, Array.from({ length: gate.qubits }, (_, i) => i), ctx.gates, problems) : undefined;
         for (const qubits of apps) {
           const parts = local === undefined ? {} : { parts: placeParts(local, qubits) };
-          ops.push({ ...base, kind: 'gate', name: gate.name, qubits, unitary, ...(noise ? { noise } : {}), ...cond, ...parts });
+          ops.push({ ...base, kind: 'gate', name: gate.name, qubits, unitary, ...(angles.length > 0 ? { angles } : {}), ...(noise ? { noise } : {}), ...cond, ...parts });
         }
       }
     }

@@ -4,6 +4,7 @@
  * what they are), plus a JSON form with the same content.
  */
 import type { Origin } from '../program/program.js';
+import type { KernelFamily } from '../engine/wasmKernels.js';
 import type { Plan, PlannedSegment } from './plan.js';
 
 /** Short name of an instruction origin: 'step 3 cx', 'step 3 depolarizing', 'idle 120 ns'. */
@@ -23,8 +24,16 @@ export function describeSources(sources: readonly number[], origins: readonly Or
   return [...counts].map(([name, c]) => (c > 1 ? `${name} ×${c}` : name)).join(', ');
 }
 
-/** The plan as a text table (kernel, qubits, fused instructions), with a one-line summary first. */
-export function formatPlan(plan: Plan, origins: readonly Origin[]): string {
+/** Which kernels run the passes of a plan, for people: the real-form passes on `family`, the rest in JS. */
+export function describeKernelFamily(family: KernelFamily): string {
+  return family === 'wasm' ? 'WebAssembly SIMD for real1, real1tp and real2; JS for diagonal and general' : 'JS for every pass';
+}
+
+/**
+ * The plan as a text table (kernel, qubits, fused instructions), with a one-line summary first
+ * and, when `family` is given, a line saying which kernels run the passes.
+ */
+export function formatPlan(plan: Plan, origins: readonly Origin[], family?: KernelFamily): string {
   const perKernel = new Map<string, number>();
   for (const s of plan.steps) perKernel.set(s.kernel, (perKernel.get(s.kernel) ?? 0) + 1);
   const summary = [...perKernel].map(([k, c]) => `${k} ${c}`).join(', ');
@@ -33,6 +42,7 @@ export function formatPlan(plan: Plan, origins: readonly Origin[]): string {
     `plan: ${plan.steps.length} kernel call${plan.steps.length === 1 ? '' : 's'} for ${plan.instructionCount} instruction${plan.instructionCount === 1 ? '' : 's'} on ${plan.n} qubit${plan.n === 1 ? '' : 's'}` +
       ` (${plan.fused ? 'fused' : 'unfused'}${summary !== '' ? `; ${summary}` : ''})`,
   );
+  if (family !== undefined) lines.push(`kernels: ${describeKernelFamily(family)}`);
   const width = String(plan.steps.length).length;
   plan.steps.forEach((s, i) => {
     const qubits = s.kernel === 'diagonal' && s.binB !== undefined && s.binB.length > 0 ? `${s.binA!.join(',')} | ${s.binB.join(',')}` : s.qubits.join(',');
@@ -41,11 +51,12 @@ export function formatPlan(plan: Plan, origins: readonly Origin[]): string {
   return lines.join('\n') + '\n';
 }
 
-/** The plan as plain data: per call its kernel, qubits, instruction indices and their origins. */
-export function planToJson(plan: Plan, origins: readonly Origin[]): object {
+/** The plan as plain data: per call its kernel, qubits, instruction indices and their origins; the kernel family when given. */
+export function planToJson(plan: Plan, origins: readonly Origin[], family?: KernelFamily): object {
   return {
     qubits: plan.n,
     fused: plan.fused,
+    ...(family !== undefined ? { kernels: family } : {}),
     instructions: plan.instructionCount,
     calls: plan.steps.map((s) => ({
       kernel: s.kernel,

@@ -1,6 +1,8 @@
 // Runs `fray run FILE --json [flags]` in this process (the same code path as bin/fray.js) and
 // prints the peak resident set size in bytes (all threads) as the last line of stdout.
-import { main } from '../../dist/cli/main.js';
+import { loadCli } from '../../bin/loadCli.js';
+
+const { main } = loadCli();
 
 const sink = { write: () => true };
 const code = await main(['run', ...process.argv.slice(2), '--json'], { stdout: sink, stderr: process.stderr });

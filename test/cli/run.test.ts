@@ -1,4 +1,5 @@
 import { execFileSync, spawnSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { fray, tempFile, LOCATED } from '../helpers/cli.js';
 
@@ -34,6 +35,23 @@ describe('fray run', () => {
     expect(a.counts).not.toEqual(c.counts);
     expect(Object.values(a.counts as Record<string, number>).reduce((x, y) => x + y, 0)).toBe(500);
     expect(a.seed).toBe(7);
+  });
+
+  it('--shots takes any integer notation of JSON or YAML up to 2^53, and the counts sum to it exactly', async () => {
+    for (const [text, value] of [
+      ['1e6', 1e6],
+      ['2.5e3', 2500],
+      ['0x100', 256],
+      ['0o17', 15],
+      ['+40', 40],
+      ['9007199254740992', 2 ** 53],
+    ] as const) {
+      const r = await fray('run', 'circuits/ghz5.yaml', '--json', '--shots', text);
+      expect(r.code, text).toBe(0);
+      const j = JSON.parse(r.out);
+      expect(j.shots).toBe(value);
+      expect(Object.values(j.counts as Record<string, number>).reduce((x, y) => x + y, 0)).toBe(value);
+    }
   });
 
   it('--set overrides a parameter and --observe adds Pauli strings', async () => {
@@ -92,11 +110,29 @@ describe('fray run', () => {
   });
 
   it('bad option values are input errors', async () => {
-    for (const args of [['--shots', 'many'], ['--max-memory', 'lots'], ['--observe', 'ZZ'], ['--set', 'nonsense'], ['--bogus']]) {
+    for (const args of [['--shots', 'many'], ['--shots', '1.5'], ['--shots', '0'], ['--shots', '9007199254740993'], ['--shots', '1e300'], ['--max-memory', 'lots'], ['--observe', 'ZZ'], ['--set', 'nonsense'], ['--bogus']]) {
       const r = await fray('run', 'circuits/ghz5.yaml', ...args);
       expect(r.code, args.join(' ')).toBe(2);
       expect(r.out).toBe('');
     }
+  });
+
+  it('bin/fray.js starts the CLI bundle from the code cache built at install (V8 accepts it)', () => {
+    const probe = "import('./bin/loadCli.js').then((m) => console.log(JSON.stringify({ rejected: m.loadCli().cacheRejected, main: typeof m.loadCli().main })))";
+    const r = spawnSync(process.execPath, ['--input-type=module', '-e', probe], { encoding: 'utf8' });
+    expect(r.status, r.stderr).toBe(0);
+    expect(JSON.parse(r.stdout)).toEqual({ rejected: false, main: 'function' });
+  });
+
+  it('the bundled command (bin/fray.js) runs sweep workers, plots and OpenQASM, whose packages load from outside the bundle', () => {
+    const qasm = spawnSync(process.execPath, ['bin/fray.js', 'run', 'circuits/qasm/ghz-wait.qasm', '--json'], { encoding: 'utf8' });
+    expect(qasm.status, qasm.stderr).toBe(0);
+    const sweep = spawnSync(process.execPath, ['bin/fray.js', 'sweep', 'circuits/ghz5.yaml', '--vary', 'noise-scale=0..1:3', '--jobs', '2'], { encoding: 'utf8' });
+    expect(sweep.status, sweep.stderr).toBe(0);
+    const svg = tempFile('cmp.svg', '');
+    const plot = spawnSync(process.execPath, ['bin/fray.js', 'compare', 'circuits/variants/ghz5-left.yaml', 'circuits/variants/ghz5-right.yaml', '--plot', svg], { encoding: 'utf8' });
+    expect(plot.status, plot.stderr).toBe(0);
+    expect(readFileSync(svg, 'utf8')).toMatch(/^<svg/);
   });
 
   it('--help explains every option with an example', async () => {

@@ -120,3 +120,9 @@ export function randomDensityMatrix(rng: () => number, n: number): DensityMatrix
   for (let i = 0; i < data.length; i++) data[i] /= tr;
   return { n, dim, data };
 }
+
+/** True when a and b hold the same doubles bit for bit (−0 ≠ +0; ρ views into larger buffers compare only their own bytes). */
+export function sameBits(a: Float64Array, b: Float64Array): boolean {
+  if (a.length !== b.length) return false;
+  return Buffer.compare(Buffer.from(a.buffer, a.byteOffset, a.byteLength), Buffer.from(b.buffer, b.byteOffset, b.byteLength)) === 0;
+}

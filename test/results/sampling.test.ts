@@ -1,6 +1,10 @@
 import { describe, it, expect } from 'vitest';
 import { sampleCounts } from '../../src/results/sampling.js';
 import { createRandom } from '../../src/results/random.js';
+import { sampleBinomial } from '../../src/results/binomial.js';
+
+/** Standard normal 0.999 quantile (common practice: statistical tables). */
+const Z_999 = 3.0902;
 import { bitstring } from '../../src/engine/layout.js';
 
 const total = (c: Record<string, number>) => Object.values(c).reduce((a, b) => a + b, 0);
@@ -39,22 +43,40 @@ describe('sampleCounts', () => {
     }
   });
 
-  it('implements inverse-CDF sampling in ascending outcome order with one double per shot', () => {
-    // Re-derive the first 50 draws by a linear scan over the cumulative sums.
-    const rng = createRandom(4242);
-    const expected: Record<string, number> = {};
-    for (let s = 0; s < 50; s++) {
-      const u = rng.nextDouble();
-      let acc = 0;
-      let k = 0;
-      for (; k < 8; k++) {
-        acc += p[k]!;
-        if (acc > u) break;
+  it('draws the multinomial by successive binomials in ascending outcome order (the documented method)', () => {
+    // Re-derive the counts from the definition in src/results/sampling.ts with the binomial sampler.
+    for (const shots of [50, 123_456, 1e12]) {
+      const rng = createRandom(4242);
+      const expected: Record<string, number> = {};
+      let left = shots;
+      for (let k = 0; k < 8 && left > 0; k++) {
+        if (p[k]! === 0) continue;
+        // P_k = Σ_{j ≥ k} p_j, summed from the end
+        const mass = [...p.slice(k)].reverse().reduce((s, v) => s + v, 0);
+        const isLast = p.slice(k + 1).every((v) => v === 0);
+        const c = isLast ? left : sampleBinomial(rng, left, Math.min(1, p[k]! / mass));
+        if (c > 0) expected[bitstring(k, 3)] = c;
+        left -= c;
       }
-      const key = bitstring(Math.min(k, 7), 3);
-      expected[key] = (expected[key] ?? 0) + 1;
+      expect(sampleCounts(p, 3, shots, 4242)).toEqual(expected);
     }
-    expect(sampleCounts(p, 3, 50, 4242)).toEqual(expected);
+  });
+
+  // Pearson's chi-square goodness of fit (common practice); critical value by the Wilson–Hilferty
+  // approximation (E. B. Wilson, M. M. Hilferty, PNAS 17, 684 (1931)) at the 0.999 quantile.
+  const chiSquareCritical = (df: number) => df * (1 - 2 / (9 * df) + Z_999 * Math.sqrt(2 / (9 * df))) ** 3;
+  it.each([1000, 1e6, 1e12, 2 ** 53])('%d shots: counts fit the distribution (chi-square below its 0.999 quantile for this seed)', (N) => {
+    const c = sampleCounts(p, 3, N, 2718);
+    expect(total(c)).toBe(N);
+    let chi2 = 0;
+    let df = -1;
+    for (let k = 0; k < 8; k++) {
+      if (p[k]! === 0) continue;
+      const e = p[k]! * N;
+      chi2 += ((c[bitstring(k, 3)] ?? 0) - e) ** 2 / e;
+      df++;
+    }
+    expect(chi2).toBeLessThan(chiSquareCritical(df));
   });
 
   it('a certain outcome takes every shot; no shots gives no counts; m = 0 has the empty outcome', () => {
@@ -75,5 +97,6 @@ describe('sampleCounts', () => {
     expect(() => sampleCounts(Float64Array.from([0, 0]), 1, 10, 1)).toThrow(RangeError);
     expect(() => sampleCounts(Float64Array.from([0.5, 0.5]), 1, -1, 1)).toThrow(RangeError);
     expect(() => sampleCounts(Float64Array.from([0.5, 0.5]), 1, 2.5, 1)).toThrow(RangeError);
+    expect(() => sampleCounts(Float64Array.from([0.5, 0.5]), 1, 2 ** 53 + 2, 1)).toThrow(RangeError);
   });
 });

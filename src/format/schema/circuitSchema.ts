@@ -5,7 +5,7 @@
  * so a step also accepts any other word as a gate name; fray itself checks those names.
  */
 import { MAX_CHANNEL_QUBITS } from '../../channels/conventions.js';
-import { BUILTIN_GATES } from '../../circuit/gates.js';
+import { BUILTIN_GATES, OPENQASM_NAMED_GATES } from '../../circuit/gates.js';
 import { RESERVED_NAMES } from '../../circuit/expression.js';
 import { CHANNEL_DEFINITION_KEYS, CHANNEL_FORM_KEYS, THERMAL_KEYS } from '../channelDefinitions.js';
 import { CIRCUIT_KEYS } from '../circuitFile.js';
@@ -113,8 +113,8 @@ export function circuitDefs(gaps: SchemaGap[]): Record<string, JsonSchema> {
     },
     gates: {
       type: 'object',
-      description: 'custom gates: a matrix, or qubits + params + steps (a composite)',
-      propertyNames: { pattern: WORD_PATTERN, not: { enum: [...new Set([...gateNames, ...STEP_ACTIONS, ...STEP_MODIFIERS, 'noise', 'all'])] } },
+      description: 'custom gates: a matrix, or qubits + params + steps (a composite); built-in names are reserved except the OpenQASM-named ones, which a custom gate may redefine',
+      propertyNames: { pattern: WORD_PATTERN, not: { enum: [...new Set([...gateNames.filter((g) => !OPENQASM_NAMED_GATES.has(g)), ...STEP_ACTIONS, ...STEP_MODIFIERS, 'noise', 'all'])] } },
       additionalProperties: { anyOf: [ref('matrixGate'), ref('compositeGate')] },
     },
     channels: { type: 'object', description: 'custom channels by name', additionalProperties: ref('channel') },
