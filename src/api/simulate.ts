@@ -27,6 +27,7 @@ import { warnOffMap } from '../noise/couplingMap.js';
 import { warnEntryFallback } from '../noise/entryFallback.js';
 import { loadCircuit, type LoadedCircuit, type LoadOptions } from './loadCircuit.js';
 import { pauliStringProblem } from '../circuit/pauliString.js';
+import type { PauliFrame } from '../noise/twirl.js';
 import { explainCommandLine } from '../format/overrides.js';
 
 /** Options of one simulation run. */
@@ -50,6 +51,8 @@ export interface SimulateOptions {
   readonly threads?: number;
   /** Fuse instructions into as few passes as possible (default true); false = one general kernel call per instruction. */
   readonly fuse?: boolean;
+  /** Gate applications whose noise is Pauli-framed (twirled exactly, or conjugated by a Pauli: src/noise/twirl.ts, src/transforms/twirl.ts). */
+  readonly frames?: ReadonlyMap<Operation, PauliFrame>;
   /**
    * Kernels of the fast engine's real-form passes: 'wasm' the WebAssembly SIMD kernels where ρ
    * fits in WebAssembly memory (up to 13 qubits), else the JS ones; 'js' always the JS kernels;
@@ -117,9 +120,9 @@ export interface Simulation {
   readonly warnings: readonly Problem[];
 }
 
-/** Schedules a loaded circuit with its profile's policy, durations and readout timing (split composites as their parts). */
-export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedule {
-  const durationOf = (op: Operation): number => {
+/** The scheduled duration (ns) of one application under a profile: its gate entry's, the reset's or measurement's, an idle step's own. */
+export function operationDuration(profile: NoiseProfile): (op: Operation) => number {
+  return (op: Operation): number => {
     switch (op.kind) {
       case 'gate':
         return profile.gateEntry(op.name, op.qubits).duration;
@@ -133,7 +136,11 @@ export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedu
         return 0;
     }
   };
-  return scheduleOperations(deviceOperations(circuit.operations, profile), circuit.register.n, durationOf, profile.schedule, {
+}
+
+/** Schedules a loaded circuit with its profile's policy, durations and readout timing (split composites as their parts). */
+export function scheduleCircuit(circuit: Circuit, profile: NoiseProfile): Schedule {
+  return scheduleOperations(deviceOperations(circuit.operations, profile), circuit.register.n, operationDuration(profile), profile.schedule, {
     simultaneousMeasure: profile.simultaneousMeasure,
     latency: profile.measureLatency,
   });
@@ -193,7 +200,7 @@ function prepare(loaded: LoadedCircuit, options: SimulateOptions): { schedule: S
   const ops = schedule.items.map((it) => it.op);
   warnEntryFallback(ops, circuit, profile, problems);
   warnOffMap(schedule, profile.couplings, circuit.register, problems);
-  const program = buildProgram(circuit, profile, schedule, problems);
+  const program = buildProgram(circuit, profile, schedule, problems, options.frames !== undefined ? { frames: options.frames } : {});
   // Problems at positions on the command line name the --set they came from.
   if (loaded.overrideTexts !== undefined) problems.items.splice(0, problems.items.length, ...explainCommandLine(problems.items, loaded.overrideTexts));
   if (loaded.noiseScale !== undefined) {

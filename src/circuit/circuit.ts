@@ -2,6 +2,7 @@ import type { CMatrix } from '../linalg/cmatrix.js';
 import type { Loc, NoiseKindsSpec } from '../format/noiseKindsSpec.js';
 import type { ProfileSpec } from '../format/profileSpec.js';
 import type { SourcePosition } from '../format/problem.js';
+import type { MitigationSpec } from '../format/mitigationBlock.js';
 
 /**
  * The typed circuit: what a validated circuit file means, with every angle evaluated,
@@ -26,6 +27,10 @@ export interface Circuit {
   readonly compositeGates: ReadonlySet<string>;
   /** Pauli strings to report, qubit 0 leftmost. */
   readonly observe: readonly Loc<string>[];
+  /** The `expect:` conditions as written (METRIC OP NUMBER, optionally `mitigated.`; parsed by src/mitigation/check.ts). */
+  readonly expect?: readonly Loc<string>[];
+  /** The `mitigation:` recipe (what `fray mitigate FILE` applies when no method is given on the command line). */
+  readonly mitigation?: MitigationSpec;
   /** The `device:` path as written (relative to the circuit file), if any. */
   readonly device: Loc<string> | null;
   /** The inline `noise:` profile, merged over the device profile field by field. */

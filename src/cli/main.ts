@@ -4,6 +4,11 @@ import { runCommand } from './runCommand.js';
 import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
 import { schemaCommand } from './schemaCommand.js';
 import { makeStyle, wantColor } from './style.js';
+import { mitigateCommand, parseInstances, parseScales } from './mitigateCommand.js';
+import { transformCommand } from './transformCommand.js';
+import { FIT_KINDS } from '../mitigation/extrapolate.js';
+import { READOUT_METHODS } from '../mitigation/readoutCorrection.js';
+import { DECOUPLING_SEQUENCES } from '../transforms/decouple.js';
 import { renderProblems } from './problems.js';
 import { parseWholeNumber } from './wholeNumber.js';
 import { MAX_SHOTS } from '../results/sampling.js';
@@ -89,8 +94,10 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
         '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..2:9 --plot s.svg      a figure against a knob\n' +
         "  fray threshold circuits/ghz5.yaml --target 'state>=0.9' --vary gates.cx.error=0.0001..0.05\n" +
         '  fray budget circuits/ghz5.yaml                 where the infidelity comes from\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,3,5 --fold --readout inverse\n' +
+        '  fray check circuits/mitigation/ghz-line.yaml --junit check.xml   expectations for CI\n' +
         '\nExit status: 0 success, 2 input error (FILE:LINE:COL: message), 3 a requirement not met\n' +
-        '(compare --require; threshold: the target met nowhere), 1 internal error.',
+        '(compare --require, check; threshold: the target met nowhere), 1 internal error.',
     );
 
   const run = program
@@ -286,6 +293,93 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
   // the options shared with run, listed after the command's own
   addTargetOptions(budget, 'multiply every noise strength by C first');
   budget.exitOverride();
+
+  const mitigateCmd = addTargetOptions(program
+    .command('mitigate')
+    .description('apply error mitigation (dynamical decoupling, Pauli twirling, zero-noise extrapolation by folding, readout correction) and compare with the ideal answer')
+    .argument('<file>', 'circuit file (YAML)')
+    .option('--zne <scales>', 'extrapolate to zero noise from these noise scales, e.g. 1,2,3 (each ≥ 1; the uniform noise scale unless --fold)', parseScales)
+    .option('--fit <model>', `extrapolation: ${FIT_KINDS.join(', ')} (default richardson)`)
+    .option('--fold [order]', 'amplify --zne by unitary folding instead; fractional scales fold the last gates once more (end, default) or random ones')
+    .option('--twirl [instances]', 'Pauli-twirl the 2-qubit Clifford gates: exactly, or averaged over this many seeded random instances', parseInstances)
+    .option('--seed <s>', 'seed of --fold random and of --twirl instances (default 1)', parseSeed)
+    .option('--readout <method>', `correct the readout: ${READOUT_METHODS.join(', ')}`)
+    .option('--dd <sequence>', `fill idle windows with a decoupling sequence first: ${DECOUPLING_SEQUENCES.join(', ')}`)
+    .option('--min-idle <duration>', 'shortest idle window --dd fills, e.g. 200ns (default: every window its pulses fit in)')
+    .addOption(new Option('--observe <pauli...>', 'observables to extrapolate, qubit 0 leftmost (repeatable or comma-separated), besides the circuit\'s observe:'))
+    .option('--json', 'print one JSON object instead of the tables')
+    .option('--threads <n>', 'threads sharing each pass on 9+ qubits (default: the machine\'s cores; 1 = off)', parseThreads)
+    .option('--no-color', 'plain text even on a terminal (NO_COLOR is respected too)')
+    .addHelpText(
+      'after',
+      '\nExamples:\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,2,3 --fit richardson --observe ZZII\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,3,5 --fold            as a device would\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,1.5,2 --fold random --seed 4 --fit linear\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --readout bounded --json\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --dd xy4 --min-idle 200ns --zne 1,3,5 --fold\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --twirl 50 --seed 2 --zne 1,3,5 --fold --fit exponential\n' +
+        '\nThe noise scale multiplies every noise strength (as --noise-scale does). Folding turns each gate G into\n' +
+        'G (G†G)^k, G† taking G\'s profile entry (duration and noise); the ideal run is unchanged.\n' +
+        'See docs/mitigation.md for the fits and the readout correction.',
+    ), 'multiply every noise strength by C ≥ 0 before mitigating (the device as run; folding scales on top)')
+    .action(async (file: string, opts: Record<string, unknown>) => {
+      await mitigateCommand(file, opts, io);
+    });
+  mitigateCmd.exitOverride();
+
+  const checkCmd = addTargetOptions(
+    program
+      .command('check')
+      .description("evaluate every file's expect: conditions (and a baseline of all figures) for CI: exit 0 all hold, 3 any fails")
+      .argument('<files...>', 'circuit files (YAML) with expect: blocks')
+      .option('--json', 'print one JSON object instead of the table')
+      .option('--junit <file>', 'also write JUnit XML (one test case per expectation) to this file')
+      .option('--baseline <file>', 'also fail every figure that moved from this baseline by more than --tolerance')
+      .option('--write-baseline <file>', 'write every figure of this run as a baseline')
+      .option('--tolerance <x>', 'largest absolute move from the baseline that passes (default 1e-9)')
+      .option('--no-color', 'plain text even on a terminal (NO_COLOR is respected too)')
+      .addHelpText(
+        'after',
+        '\nExamples:\n' +
+          '  fray check circuits/mitigation/ghz-line.yaml\n' +
+          '  fray check circuits/mitigation/*.yaml --junit check.xml --baseline base.json --tolerance 1e-6\n' +
+          '  fray check circuits/mitigation/ghz-line.yaml --write-baseline base.json\n' +
+          "\nConditions: METRIC OP NUMBER as for compare --require, and mitigated.observable:P, mitigated.tvd,\n" +
+          "mitigated.classical after the file's mitigation: recipe. A file with no expect: is reported, not passed.\n" +
+          'Exit status: 0 all hold, 3 any fails (or a file checks nothing), 2 input error.',
+      ),
+    'multiply every noise strength by C ≥ 0 in every file checked',
+  ).action(async (files: string[], opts: Record<string, unknown>) => {
+    const { checkCommand } = await import('./checkCommand.js');
+    exitWith(await checkCommand(files, opts, io));
+  });
+  checkCmd.exitOverride();
+
+  const transformCmd = addTargetOptions(
+    program
+      .command('transform')
+      .description('write a transformed circuit file: dynamical decoupling inserted, or gates folded (what fray mitigate runs)')
+      .argument('<file>', 'circuit file (YAML)')
+      .option('--dd <sequence>', `fill idle windows with a decoupling sequence: ${DECOUPLING_SEQUENCES.join(', ')}`)
+      .option('--min-idle <duration>', 'shortest idle window --dd fills, e.g. 200ns (default: every window its pulses fit in)')
+      .option('--fold <scale>', 'fold the gates to this noise scale (G -> G (G†G)^k, fractional by the last gates)')
+      .option('--order <order>', 'which gates fold once more for a fractional --fold: end (default) or random')
+      .option('--seed <s>', 'seed of --order random (default 1)', parseSeed)
+      .option('--out <file>', 'write the new circuit here (default: standard output)')
+      .addHelpText(
+        'after',
+        '\nExamples:\n' +
+          '  fray transform circuits/mitigation/ghz-line.yaml --dd xy4 --min-idle 200ns --out ghz-dd.yaml\n' +
+          '  fray transform circuits/ghz5.yaml --fold 3\n' +
+          '\nThe new file keeps every section of the old one but its steps, with a header comment saying what\n' +
+          "was inserted where. Steps with their own noise: cannot be written yet (run fray mitigate instead).",
+      ),
+    'multiply every noise strength by C ≥ 0 when scheduling (it changes no durations)',
+  ).action(async (file: string, opts: Record<string, unknown>) => {
+    await transformCommand(file, opts, io);
+  });
+  transformCmd.exitOverride();
   addFormatCommands(program, io);
 
   program

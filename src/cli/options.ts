@@ -17,6 +17,11 @@ export function parseSetOptions(values: unknown): Override[] {
   });
 }
 
+/** `--observe` values (repeatable or comma-separated) as a list of Pauli strings. */
+export function parseObserveOptions(values: unknown): string[] {
+  return ((values as string[] | undefined) ?? []).flatMap((s) => s.split(',')).map((s) => s.trim()).filter((s) => s !== '');
+}
+
 /** `--noise-scale C`: a finite number ≥ 0. */
 export function parseNoiseScale(v: string): number {
   const c = Number(v);

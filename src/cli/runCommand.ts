@@ -6,14 +6,14 @@ import { renderRunReport } from './runReport.js';
 import { toJson } from '../results/json.js';
 import { makeStyle, wantColor } from './style.js';
 import { UsageError, VERSION, type CliIO } from './main.js';
-import { parseSetOptions } from './options.js';
+import { parseObserveOptions, parseSetOptions } from './options.js';
 import { writeOutputFile } from './writeOutput.js';
 import { runPage } from '../html/index.js';
 
 /** `fray run FILE`: parses the options, runs the simulation, writes the report or JSON in one piece. */
 export async function runCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
   const set = parseSetOptions(opts['set']);
-  const observe = ((opts['observe'] as string[] | undefined) ?? []).flatMap((s) => s.split(',')).map((s) => s.trim()).filter((s) => s !== '');
+  const observe = parseObserveOptions(opts['observe']);
   let maxMemoryBytes: number | undefined;
   if (opts['maxMemory'] !== undefined) {
     maxMemoryBytes = parseByteSize(String(opts['maxMemory']));

@@ -9,12 +9,13 @@ import { fileStart, ProblemList, type SourcePosition } from './problem.js';
 import { readProfile, type ProfileSpec } from './profileSpec.js';
 import { asMap, checkKeys, entryOf, offsetInto, readString } from './read.js';
 import { readRegister } from './register.js';
+import { readMitigation } from './mitigationBlock.js';
 import { RecordReader } from './record.js';
 import { readSteps } from './steps.js';
 import { describe, parseYamlTree, type YNode } from './yamlTree.js';
 
 /** Top-level keys of a circuit file. */
-export const CIRCUIT_KEYS = ['name', 'qubits', 'device', 'noise', 'params', 'gates', 'channels', 'observe', 'bits', 'steps'] as const;
+export const CIRCUIT_KEYS = ['name', 'qubits', 'device', 'noise', 'params', 'gates', 'channels', 'observe', 'bits', 'mitigation', 'expect', 'steps'] as const;
 
 /** Options that change how a circuit file reads. */
 export interface CircuitReadOptions {
@@ -92,6 +93,20 @@ export function readCircuitTree(
     }
   }
 
+  const expect: Loc<string>[] = [];
+  const ee = entryOf(map, 'expect');
+  if (ee !== undefined) {
+    if (ee.value.kind !== 'seq') problems.error(ee.value.at, 'expected-list', `'expect' must be a list of conditions such as 'state >= 0.9', not ${describe(ee.value)}`);
+    else {
+      for (const item of ee.value.items) {
+        const s = readString(item, "an 'expect' entry (a condition such as 'state >= 0.9')", problems);
+        if (s !== undefined) expect.push({ value: s, at: item.at });
+      }
+    }
+  }
+  const me = entryOf(map, 'mitigation');
+  const mitigation = me === undefined ? undefined : readMitigation(me.value, problems);
+
   if (register === undefined || se === undefined) return undefined;
   const record = new RecordReader(se.value);
   const read = readSteps(se.value, { register, params, gates, channels }, problems, record);
@@ -114,6 +129,8 @@ export function readCircuitTree(
     definitions: gates.definitions(),
     compositeGates,
     observe,
+    ...(mitigation !== undefined ? { mitigation } : {}),
+    ...(ee !== undefined ? { expect } : {}),
     device,
     inlineNoise,
     operations,

@@ -8,6 +8,7 @@ import { detuningAngle, zRotation, zzAngle, zzRotation } from '../noise/coherent
 import type { NoiseProfile } from '../noise/profile.js';
 import type { IdleWindow, Schedule, TimedOperation } from '../schedule/schedule.js';
 import { buildTimeline } from '../schedule/timeline.js';
+import { frameNoise, type PauliFrame } from '../noise/twirl.js';
 
 export type { Origin } from '../engine/instruction.js';
 
@@ -32,6 +33,12 @@ export function hasDrift(profile: NoiseProfile): boolean {
   return profile.qubits.some((q) => q.detuning !== 0) || (profile.couplings ?? []).some((c) => c.zz !== 0);
 }
 
+/** Options of buildProgram. */
+export interface ProgramOptions {
+  /** Gate applications whose noise is Pauli-framed (src/noise/twirl.ts): exactly twirled, or conjugated by one Pauli string. */
+  readonly frames?: ReadonlyMap<Operation, PauliFrame>;
+}
+
 /**
  * Builds the instruction lists.
  *
@@ -50,7 +57,7 @@ export function hasDrift(profile: NoiseProfile): boolean {
  * is consistent with the timeline for the record too: a bit's reads and writes are in program
  * order and start in that order (src/schedule/schedule.ts), and the schedule never depends on outcomes.
  */
-export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: Schedule, problems: ProblemList): Program {
+export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: Schedule, problems: ProblemList, options: ProgramOptions = {}): Program {
   const n = circuit.register.n;
   const noisy: Instruction[] = [];
   const origins: Origin[] = [];
@@ -101,6 +108,7 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
     duration: number,
     thermal: boolean,
     kinds: NoiseKindsSpec,
+    frame?: PauliFrame,
   ): void => {
     const zzAt = misplacedZz(kinds, k);
     if (zzAt !== undefined) {
@@ -118,10 +126,10 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
         channels,
       });
       if (gn.warning !== undefined) warnOnce(kinds.error?.at ?? op.at, 'error-below-coherence-limit', `${label}: ${gn.warning}`);
-      for (const c of gn.channels) {
+      for (const c of frame === undefined ? gn.channels : frameNoise(gn.channels, k, frame)) {
         const on = c.targets.map((t) => qubits[t]!);
         const origin = { step: op.step, what: c.source === 'thermal' ? `thermal during ${label}` : c.source };
-        if (c.source === 'coherent') pushNoisy({ op: 'unitary', qubits: on, matrix: c.kraus[0]! }, origin);
+        if (c.source === 'coherent' || c.source.startsWith('twirl ')) pushNoisy({ op: 'unitary', qubits: on, matrix: c.kraus[0]! }, origin);
         else pushNoisy({ op: 'channel', qubits: on, kraus: c.kraus }, origin);
       }
     } catch (e) {
@@ -146,7 +154,7 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
         const label = `${stepName} (${op.name} on ${op.qubits.join(', ')})`;
         pushNoisy({ op: 'unitary', qubits: op.qubits, matrix: op.unitary }, { step: op.step, what: op.name });
         pushIdeal({ op: 'unitary', qubits: op.qubits, matrix: op.unitary }, { step: op.step, what: op.name });
-        emitNoise(op, label, op.qubits.length, op.qubits, item.end - item.start, entry.thermal, kindsOf(op.noise, entry.kinds));
+        emitNoise(op, label, op.qubits.length, op.qubits, item.end - item.start, entry.thermal, kindsOf(op.noise, entry.kinds), options.frames?.get(op));
         break;
       }
       case 'reset': {

@@ -97,16 +97,24 @@ export function applyReadout(p: Float64Array, confusion: readonly ReadoutConfusi
       throw new RangeError(`applyReadout: oneAsZero of measured qubit #${j} is ${b}, not a probability`);
     }
     if (a === 0 && b === 0) continue;
-    const bit = 1 << (m - 1 - j);
-    for (let k = 0; k < size; k++) {
-      if (k & bit) continue;
-      const p0 = out[k]!;
-      const p1 = out[k | bit]!;
-      out[k] = (1 - a) * p0 + b * p1;
-      out[k | bit] = a * p0 + (1 - b) * p1;
-    }
+    applyQubitMap(out, m, j, 1 - a, b, a, 1 - b);
   }
   return out;
+}
+
+/**
+ * Applies the real 2×2 map [[m00, m01], [m10, m11]] (rows = new value, columns = old) to
+ * measured qubit j of the distribution `p` over m qubits, in place (outcome order above).
+ */
+export function applyQubitMap(p: Float64Array, m: number, j: number, m00: number, m01: number, m10: number, m11: number): void {
+  const bit = 1 << (m - 1 - j);
+  for (let k = 0; k < p.length; k++) {
+    if (k & bit) continue;
+    const p0 = p[k]!;
+    const p1 = p[k | bit]!;
+    p[k] = m00 * p0 + m01 * p1;
+    p[k | bit] = m10 * p0 + m11 * p1;
+  }
 }
 
 /**

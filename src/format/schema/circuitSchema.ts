@@ -13,6 +13,11 @@ import { COMPOSITE_GATE_KEYS, MAX_CUSTOM_GATE_QUBITS } from '../gateLibrary.js';
 import { PAULI_KEYS } from '../noiseKindsSpec.js';
 import { BIT_NAME } from '../record.js';
 import { MAX_DECLARED_QUBITS } from '../register.js';
+import { AMPLIFY_KINDS, MITIGATION_DD_KEYS, MITIGATION_KEYS, MITIGATION_TWIRL_KEYS, MITIGATION_ZNE_KEYS } from '../mitigationBlock.js';
+import { FIT_KINDS } from '../../mitigation/extrapolate.js';
+import { READOUT_METHODS } from '../../mitigation/readoutCorrection.js';
+import { DECOUPLING_SEQUENCES } from '../../transforms/sequences.js';
+import { MAX_TWIRL_INSTANCES } from '../../transforms/twirl.js';
 import { STEP_ACTIONS, STEP_MODIFIERS } from '../stepShape.js';
 import { keyedObject, type JsonSchema, type SchemaGap } from './keyedObject.js';
 import { DURATION, MATRIX, NUMBER_OR_EXPRESSION, QUBIT_REF, ref, TARGET, TEXT, WORD_PATTERN } from './leaves.js';
@@ -122,10 +127,30 @@ export function circuitDefs(gaps: SchemaGap[]): Record<string, JsonSchema> {
       description: 'Pauli strings to report ⟨P⟩ for: one letter I, X, Y, Z per qubit, qubit 0 leftmost',
       anyOf: [ref('pauliString'), { type: 'array', items: ref('pauliString') }],
     },
+    mitigation: ref('mitigation'),
+    expect: { type: 'array', items: { type: 'string' }, description: "conditions the run must meet, e.g. 'state >= 0.9' (a failed one exits 3)" },
     bits: { type: 'array', items: ref('bitName'), uniqueItems: true, description: 'record mode: the order of the record bits (leftmost first)' },
     steps: { type: 'array', minItems: 1, items: ref('step'), description: 'the steps, executed in order' },
   }, gaps, { description: 'a fray circuit file', required: ['qubits', 'steps'] });
+  // readMitigation (src/format/mitigationBlock.ts)
+  const seed = { type: 'integer', description: 'seed of the random choices' };
+  const mitigation = keyedObject('mitigation', MITIGATION_KEYS, {
+    dd: keyedObject('mitigation dd', MITIGATION_DD_KEYS, { sequence: { enum: [...DECOUPLING_SEQUENCES] }, min_idle: DURATION }, gaps, { required: ['sequence'], description: 'dynamical decoupling in idle windows' }),
+    twirl: {
+      anyOf: [{ type: 'boolean' }, keyedObject('mitigation twirl', MITIGATION_TWIRL_KEYS, { instances: { type: 'integer', minimum: 1, maximum: MAX_TWIRL_INSTANCES }, seed }, gaps)],
+      description: 'Pauli twirling: true, or instances and seed',
+    },
+    zne: keyedObject('mitigation zne', MITIGATION_ZNE_KEYS, {
+      scales: { type: 'array', items: { type: 'number' }, description: 'noise scales, 1 first' },
+      fit: { enum: [...FIT_KINDS] },
+      amplify: { enum: [...AMPLIFY_KINDS] },
+      fold: { enum: ['end', 'random'] },
+      seed,
+    }, gaps, { description: 'zero-noise extrapolation' }),
+    readout: { enum: [...READOUT_METHODS], description: 'readout-error correction' },
+  }, gaps, { description: 'error-mitigation recipe' });
   return {
+    mitigation,
     circuit,
     step,
     compositeStep,

@@ -1,0 +1,95 @@
+import { loadCircuit } from '../api/loadCircuit.js';
+import { mitigate, type MitigateOptions } from '../mitigation/mitigate.js';
+import { FIT_KINDS, type FitKind } from '../mitigation/extrapolate.js';
+import { READOUT_METHODS, type ReadoutMethod } from '../mitigation/readoutCorrection.js';
+import { MAX_FOLD_SCALE, type FoldOrder } from '../transforms/fold.js';
+import { MAX_TWIRL_INSTANCES } from '../transforms/twirl.js';
+import { DECOUPLING_SEQUENCES, type DecouplingSequence } from '../transforms/decouple.js';
+import { parseDuration } from '../format/duration.js';
+import { renderMitigationReport } from './mitigateReport.js';
+import { toJson } from '../results/json.js';
+import { makeStyle, wantColor } from './style.js';
+import { UsageError, type CliIO } from './main.js';
+import { parseObserveOptions, targetOf } from './options.js';
+import { recipeOptions } from '../mitigation/recipe.js';
+
+/** `fray mitigate FILE`: parses the options, runs the mitigation, writes the table or JSON in one piece. */
+export async function mitigateCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
+  const zne = opts['zne'] as number[] | undefined;
+  const readout = opts['readout'] as string | undefined;
+  const dd = opts['dd'] as string | undefined;
+  const twirl = opts['twirl'] as true | number | undefined;
+  const fromCommandLine = zne !== undefined || readout !== undefined || dd !== undefined || twirl !== undefined;
+  const fit = (opts['fit'] as string | undefined) ?? 'richardson';
+  if (!FIT_KINDS.includes(fit as FitKind)) throw new UsageError(`--fit ${fit}: expected one of ${FIT_KINDS.join(', ')}`);
+  const fold = opts['fold'] as true | string | undefined;
+  const order = fold === undefined || fold === true ? 'end' : fold;
+  if (order !== 'end' && order !== 'random') throw new UsageError(`--fold ${order}: expected end or random (or --fold alone: from the end)`);
+  if (zne === undefined && (opts['fit'] !== undefined || opts['fold'] !== undefined)) throw new UsageError('--fit and --fold shape a zero-noise extrapolation: give --zne SCALES too');
+  if (readout !== undefined && !READOUT_METHODS.includes(readout as ReadoutMethod)) throw new UsageError(`--readout ${readout}: expected one of ${READOUT_METHODS.join(', ')}`);
+  if (dd !== undefined && !DECOUPLING_SEQUENCES.includes(dd as DecouplingSequence)) throw new UsageError(`--dd ${dd}: expected one of ${DECOUPLING_SEQUENCES.join(', ')}`);
+  if (dd === undefined && opts['minIdle'] !== undefined) throw new UsageError('--min-idle shapes dynamical decoupling: give --dd SEQUENCE too');
+  let minIdle = 0;
+  if (opts['minIdle'] !== undefined) {
+    const parsed = parseDuration(String(opts['minIdle']));
+    if ('error' in parsed) throw new UsageError(`--min-idle ${String(opts['minIdle'])}: ${parsed.error}`);
+    minIdle = parsed.ns;
+  }
+  const observe = parseObserveOptions(opts['observe']);
+  const { file: _file, ...target } = targetOf(file, opts);
+  const loaded = loadCircuit(file, target);
+  const recipe = loaded.circuit.mitigation;
+  if (!fromCommandLine && recipe === undefined) {
+    throw new UsageError("nothing to mitigate: give --zne SCALES, --readout METHOD, --dd SEQUENCE, --twirl [N], or several (or a 'mitigation:' block in the circuit file)");
+  }
+  const seed = opts['seed'] as number | undefined;
+  const chosen: MitigateOptions = fromCommandLine
+    ? {
+        ...(zne !== undefined
+          ? { zne: { scales: zne, fit: fit as FitKind, ...(fold !== undefined ? { amplify: 'fold' as const, order: order as FoldOrder, ...(seed !== undefined ? { seed } : {}) } : { amplify: 'scale' as const }) } }
+          : {}),
+        ...(readout !== undefined ? { readout: readout as ReadoutMethod } : {}),
+        ...(dd !== undefined ? { dd: { sequence: dd as DecouplingSequence, minIdle } } : {}),
+        ...(twirl !== undefined ? { twirl: twirl === true ? {} : { instances: twirl, ...(seed !== undefined ? { seed } : {}) } } : {}),
+      }
+    : recipeOptions(recipe!);
+  const hasObservables = observe.length > 0 || loaded.circuit.observe.length > 0;
+  const where = fromCommandLine ? '' : " (the file's 'mitigation:' block)";
+  if (chosen.zne !== undefined && !hasObservables) {
+    throw new UsageError(`zero-noise extrapolation${where} extrapolates Pauli observables: give --observe P (or list them under 'observe:' in the circuit)`);
+  }
+  if (chosen.zne === undefined && chosen.readout === undefined && !hasObservables) {
+    throw new UsageError(`decoupling and twirling${where} are judged by Pauli observables: give --observe P (or list them under 'observe:'), or a readout correction to compare distributions`);
+  }
+  const options: MitigateOptions = {
+    ...chosen,
+    observe,
+    ...(opts['threads'] !== undefined ? { run: { threads: opts['threads'] as number } } : {}),
+  };
+  const result = mitigate(loaded, options);
+  if (opts['json']) {
+    io.stdout.write(toJson(result) + '\n');
+    return;
+  }
+  const color = wantColor(process.stdout, opts['color'] !== false) && io.stdout === process.stdout;
+  io.stdout.write(renderMitigationReport(result, makeStyle(color)));
+}
+
+/** `--twirl N`: a whole number of sampled instances, 1 to MAX_TWIRL_INSTANCES. */
+export function parseInstances(v: string): number {
+  const n = Number(v);
+  if (!/^\d+$/.test(v) || n < 1 || n > MAX_TWIRL_INSTANCES) throw new UsageError(`--twirl ${v}: expected a whole number of instances from 1 to ${MAX_TWIRL_INSTANCES} (or --twirl alone for the exact twirl)`);
+  return n;
+}
+
+/** `--zne 1,2,3`: distinct noise scales, each a number in [1, MAX_FOLD_SCALE], at least two. */
+export function parseScales(v: string): number[] {
+  const parts = v.split(',').map((s) => s.trim());
+  const scales = parts.map(Number);
+  if (parts.some((s) => s === '') || scales.some((x) => !Number.isFinite(x) || x < 1 || x > MAX_FOLD_SCALE)) {
+    throw new UsageError(`--zne ${v}: expected comma-separated noise scales from 1 to ${MAX_FOLD_SCALE}, e.g. --zne 1,3,5`);
+  }
+  if (scales.length < 2) throw new UsageError(`--zne ${v}: extrapolation needs at least 2 noise scales, e.g. --zne 1,3`);
+  if (new Set(scales).size !== scales.length) throw new UsageError(`--zne ${v}: the noise scales must be distinct`);
+  return scales;
+}
