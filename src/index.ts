@@ -34,8 +34,9 @@ export type {
   Varied,
   Interval,
 } from './studies/index.js';
-// Plots (src/plots/): vega-lite specs rendered to SVG without a browser.
-export { renderSvg, plotCompare, plotSweep, plotBudget } from './plots/index.js';
+// Plots (src/plots/): vega-lite specs rendered to SVG without a browser; the run's HTML report (src/html/).
+export { renderSvg, plotCompare, plotSweep, plotBudget, timelineSpec, comparisonBarsSpec } from './plots/index.js';
+export type { TimelineData, ComparisonChart } from './plots/index.js';
 export { InputError, ProblemList, formatProblem } from './format/problem.js';
 export type { Problem, SourcePosition } from './format/problem.js';
 export type { Circuit, Operation, Register, GateDefinition, Condition as BitCondition, ConditionTerm } from './circuit/circuit.js';
@@ -67,6 +68,10 @@ export { pauliExpectation, blochVectors } from './results/observables.js';
 export type { CMatrix } from './linalg/cmatrix.js';
 export { Channel, checkPhysicality, channelMetrics, diamondDistance, nearestCptp, sequence, parallel } from './channels/index.js';
 export type { Physicality, ChannelMetrics, DiamondDistance, CptpRepair, ChannelForm } from './channels/index.js';
+export { runPage, timelineData, idleWindowCost } from './html/index.js';
+export type { RunPageOptions } from './html/index.js';
+export { buildSchemas, schemaText, SCHEMA_KINDS } from './format/schema/index.js';
+export type { SchemaKind, JsonSchema } from './format/schema/index.js';
 export { mitigate, recipeOptions, extrapolate, correctReadout, invertReadout, projectToSimplex, FIT_KINDS, READOUT_METHODS } from './mitigation/index.js';
 export type { MitigateOptions, MitigationResult, ObservableMitigation, ReadoutMitigation, ZneRecipe, TwirlRecipe, Extrapolation, FitKind, ScalePoint, ReadoutMethod } from './mitigation/index.js';
 export { foldCircuit, insertDecoupling, DECOUPLING_SEQUENCES, twirlFrames, twirlSampler, isClifford } from './transforms/index.js';

@@ -2,6 +2,7 @@ import { Command, CommanderError, Option } from 'commander';
 import { InputError } from '../format/problem.js';
 import { runCommand } from './runCommand.js';
 import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
+import { schemaCommand } from './schemaCommand.js';
 import { makeStyle, wantColor } from './style.js';
 import { mitigateCommand, parseInstances, parseScales } from './mitigateCommand.js';
 import { transformCommand } from './transformCommand.js';
@@ -27,7 +28,8 @@ export interface CliIO {
   readonly stderr: { write(s: string): unknown; isTTY?: boolean };
 }
 
-const VERSION = '0.1.0';
+/** fray's version (printed by --version and written in reports). */
+export const VERSION = '0.1.0';
 
 /** Runs the fray command line with `argv` (without node and script) and returns the exit status. */
 export async function main(argv: readonly string[], io: CliIO = { stdout: process.stdout, stderr: process.stderr }): Promise<number> {
@@ -113,6 +115,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .option('--top <k>', 'how many outcomes the report lists', parseTop, 8)
     .option('--state', 'print per-qubit Bloch vectors (and ρ for up to 3 qubits); in record mode each branch\'s weight')
     .option('--schedule', 'print the time schedule, idle windows and drift (detuning, zz) per qubit and pair; in record mode which measurement feeds which step')
+    .option('--html <file>', 'also write a self-contained HTML report: schedule timeline, outcome bars, Bloch lengths, observables')
     .option('--max-memory <size>', 'refuse runs needing more memory than this, e.g. 2GiB (default: half the machine)')
     .option('--plan', 'print the plan of kernel calls (what is fused into each pass over the density matrix) instead of running')
     .option('--threads <n>', 'threads sharing each pass on 9+ qubits (default: the machine\'s cores; 1 = off)', parseThreads)
@@ -134,6 +137,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
         '  fray run circuits/ghz5.yaml --noise-scale 2 --layout 4,3,2,1,0\n' +
         '  fray run circuits/ghz5.yaml --shots 1000 --seed 7 --observe ZZIII,XXXXX --json\n' +
         '  fray run circuits/teleport.yaml --schedule --state   mid-circuit measurement and feed-forward\n' +
+        '  fray run circuits/qpe3-asap.yaml --html report.html   the timeline and charts in one page\n' +
         '  fray run circuits/bench/layers10x20.yaml --plan      what each pass over ρ fuses\n' +
         '  fray run circuits/bench/layers10x20.yaml --threads 1 one thread (or --no-fuse: one pass per operation)\n' +
         '\nReport figures: state fidelity is Uhlmann–Jozsa, squared; classical fidelity and total\n' +
@@ -377,6 +381,14 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
   });
   transformCmd.exitOverride();
   addFormatCommands(program, io);
+
+  program
+    .command('schema')
+    .description('print the JSON Schema of a file kind, for editors that complete keys and flag typos as you type')
+    .argument('<kind>', 'circuit, profile (a device file) or channels (a channel file of fray channel)')
+    .addHelpText('after', '\nExample:\n  fray schema circuit > circuit.schema.json\n\nThe same schemas ship as docs/schemas/*.schema.json; docs/editors.md shows how to use them.')
+    .action((kind: string) => schemaCommand(kind, io))
+    .exitOverride();
   return program;
 }
 

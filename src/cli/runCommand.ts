@@ -6,8 +6,10 @@ import { renderRunReport } from './runReport.js';
 import { toJson } from '../results/json.js';
 import { runJson } from './runJson.js';
 import { makeStyle, wantColor } from './style.js';
-import { UsageError, type CliIO } from './main.js';
+import { UsageError, VERSION, type CliIO } from './main.js';
 import { parseObserveOptions, parseSetOptions } from './options.js';
+import { writeOutputFile } from './writeOutput.js';
+import { runPage } from '../html/index.js';
 
 /** `fray run FILE`: parses the options, runs the simulation, writes the report or JSON in one piece. */
 export async function runCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
@@ -32,6 +34,8 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
     fuse: opts['fuse'] !== false,
     ...(opts['kernels'] !== undefined ? { kernelFamily: opts['kernels'] as KernelFamily } : {}),
   };
+  const html = opts['html'] as string | undefined;
+  if (html !== undefined && opts['plan'] === true) throw new UsageError('--html draws a run; --plan does not run the circuit: give one of them');
   if (opts['plan'] === true) {
     const planned = planFile(file, options);
     if (planned.segments !== undefined) {
@@ -44,6 +48,10 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
     return;
   }
   const sim = simulate(file, options);
+  if (html !== undefined) {
+    writeOutputFile('--html', html, await runPage(sim, { top: opts['top'] as number, version: VERSION }));
+    io.stderr.write(`fray: wrote the HTML report to ${html}\n`);
+  }
   if (opts['json']) {
     io.stdout.write(toJson(runJson(sim, { showSchedule: opts['schedule'] === true, showState: opts['state'] === true })) + '\n');
     return;

@@ -1,4 +1,8 @@
+import { deviceDescription, deviceFacts } from '../api/describe.js';
 import type { Simulation } from '../api/simulate.js';
+import { operationName } from '../circuit/operationName.js';
+import { HEADLINE_FIGURES } from '../results/headlineFigures.js';
+import { topOutcomes } from '../results/topOutcomes.js';
 import { formatDuration } from '../format/duration.js';
 import { warningText } from '../format/problem.js';
 import { formatFrequency } from '../format/frequency.js';
@@ -14,13 +18,6 @@ export interface ReportOptions {
   readonly showSchedule: boolean;
 }
 
-/** What the device line says when no device file was named. */
-function deviceNote(sim: Simulation): string {
-  const noiseWritten = sim.circuit.inlineNoise !== null || sim.circuit.operations.some((op) => op.kind === 'channel' || ('noise' in op && op.noise !== undefined));
-  if (!noiseWritten) return 'none: an ideal run (give a noise profile with --device)';
-  return sim.profile.qubits.every((q) => !Number.isFinite(q.t1) && !Number.isFinite(q.t2)) ? 'none (noise only as written in the circuit)' : 'inline noise';
-}
-
 /** Width of the probability bar at probability 1, in characters. */
 const BAR_WIDTH = 24;
 
@@ -32,46 +29,24 @@ export function renderRunReport(sim: Simulation, opts: ReportOptions, style: Sty
   const kv = (k: string, v: string) => lines.push(`  ${style.dim(k.padEnd(10))}${v}`);
   lines.push(style.bold(r.name ?? r.file));
   kv('file', r.file);
-  kv('device', r.device ?? deviceNote(sim));
+  kv('device', deviceDescription(sim));
   const measured = r.measured.map((q) => qubitName(q, reg)).join(' ');
   if (r.bits !== undefined) kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, record: ${r.bits.join(' ')}`);
   else kv('qubits', `${r.qubits}${reg.labels ? ` (${reg.labels.join(' ')})` : ''}, measured: ${measured}`);
   if (r.layout !== undefined) kv('layout', r.layout.map((p, i) => `${qubitName(i, reg)}→${p}`).join(' ') + ' (circuit qubit → device qubit)');
   if (r.noise_scale !== undefined) kv('noise', `every strength × ${r.noise_scale} (--noise-scale)`);
   kv('duration', `${formatDuration(r.duration_ns)} (${r.schedule.toUpperCase()} schedule)`);
-  if (sim.circuit.operations.some((op) => op.kind === 'measure')) {
-    kv('readout', sim.profile.simultaneousMeasure ? 'simultaneous: each measure step starts all its measurements together' : 'each qubit measured as soon as it is free');
-  }
-  const couplings = sim.profile.couplings;
-  if (couplings !== null) {
-    const off = sim.warnings.filter((w) => w.code === 'off-coupling-map').length;
-    const withZz = couplings.filter((c) => c.zz !== 0).length;
-    kv(
-      'couplings',
-      `${couplings.length} pair${couplings.length === 1 ? '' : 's'} (${withZz} with zz); ` +
-        (off === 0 ? 'every gate on the map' : style.yellow(`${off} gate application${off === 1 ? '' : 's'} off the map (see Warnings)`)),
-    );
-  }
-  if (hasDrift(sim.profile)) {
-    const detuned = sim.profile.qubits.filter((q) => q.detuning !== 0).length;
-    const pairs = (couplings ?? []).filter((c) => c.zz !== 0).length;
-    kv('drift', `detuning on ${detuned} qubit${detuned === 1 ? '' : 's'}, zz on ${pairs} pair${pairs === 1 ? '' : 's'}; the ideal run has none (--schedule lists them)`);
-  }
+  const facts = deviceFacts(sim);
+  if (facts.readout !== undefined) kv('readout', facts.readout);
+  if (facts.couplings !== undefined) kv('couplings', `${facts.couplings.pairs}; ${facts.couplings.offMap ? style.yellow(facts.couplings.map) : facts.couplings.map}`);
+  if (facts.drift !== undefined) kv('drift', `${facts.drift} (--schedule lists them)`);
   lines.push('');
 
   lines.push(style.bold('Fidelity with the ideal run'));
-  const fid = (k: string, v: number, note: string) => lines.push(`  ${k.padEnd(26)}${v.toFixed(6)}  ${style.dim(note)}`);
-  fid('state fidelity', r.fidelity.state, 'Uhlmann–Jozsa, squared: (Tr√(√σρ√σ))²');
-  fid('classical fidelity', r.fidelity.classical, '(Σ√(p_ideal·p_measured))², readout included');
-  fid('total variation distance', r.tvd, '½Σ|p_ideal − p_measured|');
-  fid('purity', r.purity, 'Tr ρ² of the noisy state');
+  for (const f of HEADLINE_FIGURES) lines.push(`  ${f.name.padEnd(26)}${f.value(r).toFixed(6)}  ${style.dim(f.definition)}`);
   lines.push('');
 
-  const outcomes = Object.keys(r.probabilities.measured);
-  const ranked = outcomes
-    .map((k) => ({ k, p: Math.max(r.probabilities.ideal[k] ?? 0, r.probabilities.measured[k] ?? 0) }))
-    .sort((a, b) => b.p - a.p || (a.k < b.k ? -1 : 1))
-    .slice(0, opts.top);
+  const ranked = topOutcomes(r.probabilities, opts.top).map((k) => ({ k }));
   const record = r.bits !== undefined ? recordColumns(r.bits) : undefined;
   const show = (k: string): string => (record !== undefined ? record.cells(k) : k);
   let w: number;
@@ -191,7 +166,7 @@ function renderSchedule(sim: Simulation, style: Style): string[] {
   const lines = [style.bold(`Schedule (${sim.schedule.policy.toUpperCase()}, times in ns)`)];
   const bits = sim.circuit.bits ?? [];
   const names = sim.schedule.items.map(({ op }) => {
-    let name = op.kind === 'gate' ? op.name : op.kind === 'channel' ? 'noise' : op.kind;
+    let name = operationName(op);
     if (op.kind === 'measure' && op.bit !== undefined) name += ` → ${bits[op.bit]}`;
     if ((op.kind === 'gate' || op.kind === 'reset' || op.kind === 'channel') && op.condition !== undefined) {
       name += ` if ${op.condition.terms.map((t) => `${bits[t.bit]}=${t.value}`).join(',')}`;
@@ -216,7 +191,7 @@ function renderSchedule(sim: Simulation, style: Style): string[] {
     for (const f of sim.schedule.feeds) {
       const m = sim.schedule.items[f.measure]!;
       const to = sim.schedule.items[f.to]!;
-      const toName = to.op.kind === 'gate' ? to.op.name : to.op.kind === 'channel' ? 'noise' : to.op.kind;
+      const toName = operationName(to.op);
       lines.push(
         `  step ${m.op.step + 1} measure ${qubitName(m.op.qubits[0]!, reg)} → bit ${bits[f.bit]} → step ${to.op.step + 1} ${toName} ${to.op.qubits.map((q) => qubitName(q, reg)).join(' ')}` +
           `  (measurement ends ${num(m.end)}, latency ${formatDuration(f.latency)}, step starts ${num(to.start)})`,

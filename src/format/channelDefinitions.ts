@@ -42,6 +42,7 @@ import { type CMatrix, unitarityResidual } from '../linalg/cmatrix.js';
 import { parseGateCall } from './gateCall.js';
 import { UNITARITY_TOLERANCE } from './gateLibrary.js';
 import { readMatrix } from './matrix.js';
+import { PAULI_KEYS } from './noiseKindsSpec.js';
 import type { ProblemList, SourcePosition } from './problem.js';
 import { asMap, checkKeys, entryOf, offsetInto, readDuration } from './read.js';
 import { describe, type YEntry, type YMap, type YNode } from './yamlTree.js';
@@ -295,7 +296,7 @@ class DefinitionReader {
   private readPauli(node: YNode, what: string): Channel | undefined {
     const m = asMap(node, what, this.problems);
     if (m === undefined) return undefined;
-    checkKeys(m, ['x', 'y', 'z'], what, this.problems);
+    checkKeys(m, PAULI_KEYS, what, this.problems);
     const get = (k: string): number | undefined => {
       const e = entryOf(m, k);
       return e === undefined ? 0 : this.readReal(e.value, `'${k}' of ${what}`, 0, 1);

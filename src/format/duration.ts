@@ -21,7 +21,9 @@ export const DURATION_UNITS: Readonly<Record<string, number>> = {
  */
 export const MAX_DURATION_NS = 1e15;
 
-const DURATION_RE = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(ns|us|µs|μs|ms|s)\s*$/;
+/** A duration as written: a number, optional spaces, a unit of DURATION_UNITS (the JSON Schemas use this pattern too). */
+export const DURATION_PATTERN = '^\\s*([+-]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][+-]?\\d+)?)\\s*(ns|us|µs|μs|ms|s)\\s*$';
+const DURATION_RE = new RegExp(DURATION_PATTERN);
 
 /** Parses '35ns', '1.2us', '2 ms' into nanoseconds, or returns an error message. */
 export function parseDuration(text: string): { ns: number } | { error: string } {

@@ -12,7 +12,9 @@ export const FREQUENCY_UNITS: Readonly<Record<string, number>> = {
   GHz: 1e9,
 };
 
-const FREQUENCY_RE = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(Hz|kHz|MHz|GHz)\s*$/;
+/** A frequency as written: a signed number, optional spaces, a unit of FREQUENCY_UNITS (the JSON Schemas use this pattern too). */
+export const FREQUENCY_PATTERN = '^\\s*([+-]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][+-]?\\d+)?)\\s*(Hz|kHz|MHz|GHz)\\s*$';
+const FREQUENCY_RE = new RegExp(FREQUENCY_PATTERN);
 
 /** Parses '80kHz', '-1.5MHz', '20 Hz' into hertz, or returns an error message. */
 export function parseFrequency(text: string): { hz: number } | { error: string } {

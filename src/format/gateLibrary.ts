@@ -17,6 +17,9 @@ export const UNITARITY_TOLERANCE = 1e-9;
 /** Qubits a custom gate may act on. */
 export const MAX_CUSTOM_GATE_QUBITS = 6;
 
+/** The keys of a composite custom gate (a matrix gate has only `matrix`). */
+export const COMPOSITE_GATE_KEYS = ['qubits', 'params', 'steps'] as const;
+
 /** A gate usable in steps: built-in, custom matrix, or composite of other gates. */
 export interface LibraryGate {
   readonly name: string;
@@ -121,7 +124,7 @@ export class GateLibrary {
         this.written.set(e.key, { kind: 'matrix', name: e.key, qubits: k, matrix: m });
         continue;
       }
-      checkKeys(def, ['qubits', 'params', 'steps', 'matrix'], where, problems);
+      checkKeys(def, [...COMPOSITE_GATE_KEYS, 'matrix'], where, problems);
       const qe = entryOf(def, 'qubits');
       const se = entryOf(def, 'steps');
       if (qe === undefined || se === undefined) {

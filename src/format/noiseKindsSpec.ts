@@ -22,6 +22,9 @@ export function misplacedZz(kinds: NoiseKindsSpec, arity: number): SourcePositio
   return c !== undefined && c.zzAt !== undefined && arity !== 2 ? c.zzAt : undefined;
 }
 
+/** The keys of a `pauli:` map: the X, Y and Z probabilities. */
+export const PAULI_KEYS = ['x', 'y', 'z'] as const;
+
 /** True when `key` names a noise kind. */
 export function isNoiseKindKey(key: string): boolean {
   return (NOISE_KIND_KEYS as readonly string[]).includes(key);
@@ -59,7 +62,7 @@ export function readNoiseKindEntry(
     case 'pauli': {
       const m = asMap(e.value, what, problems);
       if (m === undefined) return true;
-      checkKeys(m, ['x', 'y', 'z'], what, problems);
+      checkKeys(m, PAULI_KEYS, what, problems);
       const get = (k: 'x' | 'y' | 'z'): number | undefined => {
         const ent = m.entries.find((x) => x.key === k);
         return ent === undefined ? 0 : readProbability(ent.value, `'${k}' of ${what}`, problems, env);

@@ -82,10 +82,13 @@ export interface ProfileSpec {
 
 /** The top-level keys of a noise profile. */
 export const PROFILE_KEYS = ['name', 'qubits', 'couplings', 'gates', 'idle', 'schedule'] as const;
-/** The fields of a `qubits:` entry. */
+/** The keys of one `qubits:` entry of a noise profile. */
 export const QUBIT_KEYS = ['t1', 't2', 'excited', 'readout', 'detuning'] as const;
-const COUPLING_KEYS = ['zz'] as const;
-/** The fields of a `gates:` entry. */
+/** The keys of a `readout:` map (P(read 1 | prepared 0), P(read 0 | prepared 1)). */
+export const READOUT_KEYS = ['zero_as_one', 'one_as_zero'] as const;
+/** The keys of one `couplings:` entry (a qubit pair) of a noise profile. */
+export const COUPLING_KEYS = ['zz'] as const;
+/** The keys of one `gates:` entry of a noise profile. */
 export const GATE_KEYS = ['duration', 'thermal', 'latency', 'split', 'simultaneous', ...NOISE_KIND_KEYS] as const;
 /** Gate-entry fields that are switches (true/false), not noise: `none` does not apply to them. */
 const GATE_SWITCHES: ReadonlySet<string> = new Set(['thermal', 'split', 'simultaneous']);
@@ -216,7 +219,7 @@ function readReadout(node: YNode, what: string, problems: ProblemList, env: Numb
   }
   const m = asMap(node, `${what} (one probability, or zero_as_one and one_as_zero)`, problems);
   if (m === undefined) return undefined;
-  checkKeys(m, ['zero_as_one', 'one_as_zero'], what, problems);
+  checkKeys(m, READOUT_KEYS, what, problems);
   let zeroAsOne: number | undefined = 0;
   let oneAsZero: number | undefined = 0;
   for (const e of m.entries) {

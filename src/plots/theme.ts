@@ -4,7 +4,20 @@
  * separates in grey print (dark blue, orange, sky, vermillion, green, purple, yellow),
  * a dash pattern per series so lines read without colour, and a sequential ramp for heat maps.
  */
-export const SERIES_COLORS = ['#0072B2', '#E69F00', '#56B4E9', '#D55E00', '#009E73', '#CC79A7', '#F0E442', '#000000'] as const;
+/** The Okabe–Ito colours by name (stated here once; palette.ts gives the report's roles to some of them). */
+export const OKABE_ITO = {
+  blue: '#0072B2',
+  orange: '#E69F00',
+  skyBlue: '#56B4E9',
+  vermillion: '#D55E00',
+  green: '#009E73',
+  purple: '#CC79A7',
+  yellow: '#F0E442',
+  black: '#000000',
+} as const;
+
+/** Series colours of the study charts, in an order that separates in grey print. */
+export const SERIES_COLORS = [OKABE_ITO.blue, OKABE_ITO.orange, OKABE_ITO.skyBlue, OKABE_ITO.vermillion, OKABE_ITO.green, OKABE_ITO.purple, OKABE_ITO.yellow, OKABE_ITO.black] as const;
 
 /** Dash patterns per series (solid first), so series differ in grey print too. */
 export const SERIES_DASHES: readonly (readonly number[])[] = [[1, 0], [6, 3], [2, 2], [8, 3, 2, 3], [4, 4], [1, 3]];

@@ -106,7 +106,7 @@ describe('fray run', () => {
   it('refuses a run above --max-memory before allocating', async () => {
     const r = await fray('run', 'circuits/ghz5.yaml', '--max-memory', '1MiB');
     expect(r.code).toBe(2);
-    expect(r.err).toMatch(/circuits\/ghz5\.yaml:7:9: 5 qubits need about .* but the limit is 1 MiB/);
+    expect(r.err).toMatch(/circuits\/ghz5\.yaml:8:9: 5 qubits need about .* but the limit is 1 MiB/);
   });
 
   it('bad option values are input errors', async () => {
@@ -141,7 +141,7 @@ describe('fray run', () => {
     expect(top.out).toContain('Examples:');
     const run = await fray('run', '--help');
     expect(run.code).toBe(0);
-    for (const opt of ['--json', '--device', '--set', '--shots', '--seed', '--observe', '--top', '--state', '--schedule', '--max-memory', '--no-color']) {
+    for (const opt of ['--json', '--device', '--set', '--shots', '--seed', '--observe', '--top', '--state', '--schedule', '--max-memory', '--html', '--no-color']) {
       expect(run.out).toContain(opt);
     }
     expect(run.out).toContain('Examples:');
