@@ -3,7 +3,9 @@ import { baselineOf, check, DEFAULT_BASELINE_TOLERANCE, type Baseline, type Chec
 import { toJson } from '../results/json.js';
 import { checkToJunit } from './junit.js';
 import { makeStyle, wantColor, type Style } from './style.js';
-import { EXIT, UsageError, type CliIO } from './main.js';
+import { EXIT, UsageError, VERSION, type CliIO } from './main.js';
+import { writeHtmlReport } from './htmlReport.js';
+import { checkPage } from '../html/index.js';
 import { targetOf } from './options.js';
 
 /** `fray check FILE…`: evaluates every expectation (and baseline figure), writes the table/JSON/JUnit, returns the exit status. */
@@ -14,6 +16,7 @@ export async function checkCommand(files: readonly string[], opts: Record<string
   const result = check(files, { load, tolerance, ...(baseline !== undefined ? { baseline } : {}) });
   if (opts['writeBaseline'] !== undefined) writeFileSync(String(opts['writeBaseline']), toJson(baselineOf(result)) + '\n');
   if (opts['junit'] !== undefined) writeFileSync(String(opts['junit']), checkToJunit(result));
+  await writeHtmlReport(opts, io, () => checkPage(result, VERSION));
   if (opts['json']) io.stdout.write(toJson(result) + '\n');
   else io.stdout.write(renderCheck(result, makeStyle(wantColor(process.stdout, opts['color'] !== false) && io.stdout === process.stdout)));
   return result.passed ? EXIT.ok : EXIT.requirement;

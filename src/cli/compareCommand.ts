@@ -1,12 +1,13 @@
-import { formatDuration } from '../format/duration.js';
 import { warningText } from '../format/problem.js';
-import { compareVariants, variantLabel, type CompareResult } from '../studies/index.js';
+import { compareVariants, type CompareResult } from '../studies/index.js';
 import { stringify } from 'csv-stringify/sync';
 import { toJson } from '../results/json.js';
-import { EXIT, type CliIO } from './main.js';
+import { EXIT, VERSION, type CliIO } from './main.js';
 import { parseConditionOption, parseMetricOption, parseSetOptions } from './options.js';
 import { writeOutput } from './outputFiles.js';
 import { renderTable } from './table.js';
+import { writeHtmlReport } from './htmlReport.js';
+import { compareTable, comparePage } from '../html/index.js';
 
 /** `fray compare A.yaml B.yaml …`: ranks the variants; exit status 3 when one fails a --require. */
 export async function compareCommand(files: string[], opts: Record<string, unknown>, io: CliIO): Promise<number> {
@@ -22,30 +23,16 @@ export async function compareCommand(files: string[], opts: Record<string, unkno
   });
   if (opts['csv'] !== undefined) writeOutput('--csv', String(opts['csv']), compareCsv(result));
   if (opts['plot'] !== undefined) writeOutput('--plot', String(opts['plot']), await (await import('../plots/index.js')).plotCompare(result));
+  await writeHtmlReport(opts, io, () => comparePage(result, VERSION));
   io.stdout.write(opts['json'] ? toJson(result) + '\n' : renderCompare(result));
   return result.variants.some((v) => v.failed.length > 0) ? EXIT.requirement : EXIT.ok;
 }
 
 /** The ranked table, the verdict, and what failed. */
 export function renderCompare(r: CompareResult): string {
-  const obs = r.by.startsWith('observable:') ? r.by.slice('observable:'.length) : undefined;
-  const headers = ['rank', 'variant', 'duration', '1q', '2q+', 'meas', 'reset', 'state F', 'classical F', 'TVD', ...(obs !== undefined ? [`|Δ⟨${obs}⟩|`] : []), ''];
-  const rows = r.variants.map((v) => [
-    String(v.rank),
-    variantLabel(v),
-    formatDuration(v.duration_ns),
-    String(v.operations.one_qubit_gates),
-    String(v.operations.two_qubit_gates),
-    String(v.operations.measurements),
-    String(v.operations.resets),
-    v.fidelity.state.toFixed(6),
-    v.fidelity.classical.toFixed(6),
-    v.tvd.toFixed(6),
-    ...(obs !== undefined ? [v.value.toFixed(6)] : []),
-    v.failed.length > 0 ? `FAILS ${v.failed.join(', ')}` : '',
-  ]);
-  const right = headers.map((_, c) => c === 0 || (c >= 2 && c < headers.length - 1));
-  const lines = [`Variants ranked by ${r.by} (best first)`, '', renderTable(headers, rows, right).trimEnd(), '', r.verdict];
+  const t = compareTable(r);
+  const right = t.head.map((_, c) => t.numeric.includes(c));
+  const lines = [`Variants ranked by ${r.by} (best first)`, '', renderTable(t.head, t.rows, right).trimEnd(), '', r.verdict];
   if (!r.comparable) {
     lines.push('The variants differ in qubit count or measured qubits: each figure compares a variant with its own ideal run (state fidelity, and TVD of its own distributions).');
   }

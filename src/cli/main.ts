@@ -185,12 +185,14 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .option('--json', 'print one JSON object instead of the table')
     .option('--csv <file>', 'also write the table as CSV')
     .option('--plot <file.svg>', 'also draw the ranking metric per variant as an SVG bar chart')
+    .option('--html <file>', 'also write a self-contained HTML report: the verdict, the ranking chart and the ranked table')
     .addHelpText(
       'after',
       '\nExamples:\n' +
         '  fray compare circuits/variants/*.yaml\n' +
         '  fray compare circuits/ghz5.yaml --layout 0,1,2,3,4 --layout 4,3,2,1,0 --by classical\n' +
         '  fray compare circuits/qpe3-asap.yaml circuits/qpe3-alap.yaml --require \'state>=0.78\' --json\n' +
+        '  fray compare circuits/qpe3-asap.yaml circuits/qpe3-alap.yaml --html compare.html   chart and table in one page\n' +
         '\nHigher is better for state, classical and purity; lower for tvd, duration and observable:P.\n' +
         'Exit status 3 when any variant fails a --require (the table marks it).',
     )
@@ -210,6 +212,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .option('--out <file>', 'write one row per point as it finishes: FILE.csv or FILE.jsonl (each row equals fray run --set … --json)')
     .option('--plot <file.svg>', 'draw the metrics against the varied key (two keys: a heat map of the first metric)')
     .option('--target <cond>', 'draw this condition as a line on the plot, e.g. state>=0.95')
+    .option('--html <file>', 'also write a self-contained HTML report: the plot (one or two varied keys) and every point as a table')
     .option('--jobs <n>', "worker threads, whole points each (default: the machine's cores); the output is the same for any n", parsePositiveInt('--jobs'))
     .option('--shard <i/n>', 'compute only points with index ≡ I (mod N) — for batch array jobs; join the parts with fray merge')
     .option('--resume', 'continue --out FILE: skip the points already in it')
@@ -220,6 +223,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
         '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..3:13 --plot scale.svg\n' +
         '  fray sweep circuits/ghz5.yaml --vary gates.cx.error=0.001..0.03:log:12 --out cx.csv --target \'state>=0.9\' --plot cx.svg\n' +
         '  fray sweep circuits/ghz5.yaml --vary qubits.3.t1=10us..100us:8 --vary gates.cx.error=0.002,0.008,0.02 --plot heat.svg\n' +
+        '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..3:13 --target \'state>=0.9\' --html sweep.html   plot and table in one page\n' +
         '  fray sweep circuits/ghz5.yaml --vary noise-scale=0..3:100 --out part-$I.csv --shard $I/4   (then: fray merge part-*.csv --out all.csv)\n' +
         '\nKeys are the --set keys (params, qubits.…, gates.…, couplings.…, idle, schedule) and noise-scale. CSV columns: point, the keys in base\n' +
         'units (ns, Hz, probabilities), duration_ns, fidelity_state, fidelity_classical, tvd, purity, observable_<P>_noisy/_ideal.',
@@ -276,12 +280,14 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .option('--by <metric>', 'split the loss of state (default: 1 − F), classical, tvd, purity or observable:P')
     .option('--json', 'print one JSON object instead of the tables')
     .option('--plot <file.svg>', 'draw each source\'s loss as bars')
+    .option('--html <file>', 'also write a self-contained HTML report: the bars and every table')
     .addHelpText(
       'after',
       '\nExamples:\n' +
         '  fray budget circuits/ghz5.yaml\n' +
         '  fray budget circuits/ghz5.yaml --by classical --plot budget.svg\n' +
         '  fray budget circuits/ghz5.yaml --layout 0,1,2,4,3 --json\n' +
+        '  fray budget circuits/ghz5.yaml --html budget.html          bars and tables in one page\n' +
         '\nSources: relaxation (T1) and pure dephasing (T2 beyond T1), each gate name\'s noise kinds (a calibrated\n' +
         "error: counts as the depolarizing it solves to in the full run), each custom channel, steps' own noise,\n" +
         'readout. The remainder is the total minus the single-source losses: the sources\' interaction.',
@@ -338,6 +344,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
       .option('--baseline <file>', 'also fail every figure that moved from this baseline by more than --tolerance')
       .option('--write-baseline <file>', 'write every figure of this run as a baseline')
       .option('--tolerance <x>', 'largest absolute move from the baseline that passes (default 1e-9)')
+      .option('--html <file>', 'also write a self-contained HTML report: the verdict, the values as bars, every expectation as a table')
       .option('--no-color', 'plain text even on a terminal (NO_COLOR is respected too)')
       .addHelpText(
         'after',
@@ -345,6 +352,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
           '  fray check circuits/mitigation/ghz-line.yaml\n' +
           '  fray check circuits/mitigation/*.yaml --junit check.xml --baseline base.json --tolerance 1e-6\n' +
           '  fray check circuits/mitigation/ghz-line.yaml --write-baseline base.json\n' +
+          '  fray check circuits/mitigation/*.yaml --html check.html\n' +
           "\nConditions: METRIC OP NUMBER as for compare --require, and mitigated.observable:P, mitigated.tvd,\n" +
           "mitigated.classical after the file's mitigation: recipe. A file with no expect: is reported, not passed.\n" +
           'Exit status: 0 all hold, 3 any fails (or a file checks nothing), 2 input error.',

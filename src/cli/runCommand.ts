@@ -8,7 +8,7 @@ import { runJson } from './runJson.js';
 import { makeStyle, wantColor } from './style.js';
 import { UsageError, VERSION, type CliIO } from './main.js';
 import { parseObserveOptions, parseSetOptions } from './options.js';
-import { writeOutputFile } from './writeOutput.js';
+import { writeHtmlReport } from './htmlReport.js';
 import { runPage } from '../html/index.js';
 
 /** `fray run FILE`: parses the options, runs the simulation, writes the report or JSON in one piece. */
@@ -48,10 +48,7 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
     return;
   }
   const sim = simulate(file, options);
-  if (html !== undefined) {
-    writeOutputFile('--html', html, await runPage(sim, { top: opts['top'] as number, version: VERSION }));
-    io.stderr.write(`fray: wrote the HTML report to ${html}\n`);
-  }
+  await writeHtmlReport(opts, io, () => runPage(sim, { top: opts['top'] as number, version: VERSION }));
   if (opts['json']) {
     io.stdout.write(toJson(runJson(sim, { showSchedule: opts['schedule'] === true, showState: opts['state'] === true })) + '\n');
     return;

@@ -7,8 +7,6 @@ import {
   formatOf,
   headerOf,
   headerText,
-  metricName,
-  metricValue,
   parseVary,
   planSweep,
   readSweepFile,
@@ -19,11 +17,13 @@ import {
   type SweepRow,
   type Varied,
 } from '../studies/index.js';
-import { UsageError, type CliIO } from './main.js';
+import { UsageError, VERSION, type CliIO } from './main.js';
 import { parseConditionOption, parseMetricOption, targetOf } from './options.js';
 import { makeProgress } from './progress.js';
 import { openOutput, writeOutput } from './outputFiles.js';
 import { renderTable } from './table.js';
+import { writeHtmlReport } from './htmlReport.js';
+import { sweepPage, sweepTable } from '../html/index.js';
 
 /** `--shard I/N`. */
 export function parseShard(v: string): { index: number; count: number } {
@@ -101,9 +101,11 @@ export async function sweepCommand(file: string, opts: Record<string, unknown>, 
     progress.stop();
     if (fd !== undefined) closeSync(fd);
   }
-  if (opts['plot'] !== undefined) {
+  const html = opts['html'] !== undefined;
+  if (opts['plot'] !== undefined || html) {
     const all = out !== undefined && format !== undefined ? readAllRows(out, format, rows) : rows;
-    writeOutput('--plot', String(opts['plot']), await (await import('../plots/index.js')).plotSweep(plan, check, all, plotted, target));
+    if (opts['plot'] !== undefined) writeOutput('--plot', String(opts['plot']), await (await import('../plots/index.js')).plotSweep(plan, check, all, plotted, target));
+    await writeHtmlReport(opts, io, () => sweepPage({ plan, check, rows: all, metrics: plotted, ...(target !== undefined ? { target } : {}) }, VERSION));
   }
   // A warning repeats at many points (the same file position): say each once.
   const warnings = [...new Set(rows.flatMap((r) => r.result.warnings.map(warningText)))];
@@ -149,7 +151,6 @@ const FIGURE_COLUMN = /^(duration_ns|fidelity_state|fidelity_classical|tvd|purit
 
 /** The points as a table on stdout (when there is no --out). */
 function renderSweep(plan: SweepPlan, rows: readonly SweepRow[], metrics: readonly Metric[]): string {
-  const headers = [...plan.spec.vary.map((v) => (v.unit !== null ? `${v.key} (${v.unit})` : v.key)), ...metrics.map(metricName)];
-  const body = rows.map((r) => [...plan.spec.vary.map((v) => String(Number(r.values[v.key]!.toPrecision(6)))), ...metrics.map((m) => metricValue(r.result, m).toFixed(6))]);
-  return renderTable(headers, body, headers.map(() => true));
+  const t = sweepTable(plan, rows, metrics);
+  return renderTable(t.head, t.rows, t.head.map(() => true));
 }

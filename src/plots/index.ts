@@ -8,7 +8,7 @@
 export { renderSvg, descriptionsAsTitles } from './render.js';
 export { lineChart, heatMap, barChart } from './charts.js';
 export type { LinePoint, LineChartOptions, HeatCell, Bar } from './charts.js';
-export { plotCompare, plotSweep, plotBudget } from './studyPlots.js';
+export { plotCompare, plotSweep, plotBudget, plotCheck } from './studyPlots.js';
 export { timelineSpec, TIMELINE_WIDTH, LANE_HEIGHT } from './timeline.js';
 export type { TimelineData, TimelineBox, TimelineIdle, TimelineLink } from './timeline.js';
 export { comparisonBarsSpec } from './comparisonBars.js';

@@ -1,4 +1,6 @@
 import type { BudgetResult, CompareResult, Condition, Metric, SweepCheck, SweepPlan, SweepRow, Varied } from '../studies/index.js';
+import { basename } from 'node:path';
+import type { CheckResult } from '../mitigation/check.js';
 import { metricTitle, metricValue, NOISE_SCALE_KEY, parseMetric, variantLabel } from '../studies/index.js';
 import { barChart, heatMap, lineChart } from './charts.js';
 import { NOISE_KIND_KEYS } from '../noise/kinds.js';
@@ -74,5 +76,16 @@ export async function plotBudget(r: BudgetResult): Promise<string> {
       ],
       { title: `Noise budget: ${loss}`, subtitle: `${r.name ?? r.file} on ${r.device ?? 'the noise written in the circuit'}`, valueTitle: `${loss} (only this source on)` },
     ),
+  );
+}
+
+/** A check's expectations as bars of the value each one read, grouped (and labelled) by whether it holds. */
+export async function plotCheck(r: CheckResult): Promise<string> {
+  const many = r.files.length > 1;
+  const bars = r.files.flatMap((f) =>
+    f.expectations.map((e) => ({ label: `${e.pass ? 'pass' : 'FAIL'} · ${many ? `${basename(f.file)} · ` : ''}${e.expectation}`, value: e.value, group: e.pass ? 'holds' : 'fails' })),
+  );
+  return renderSvg(
+    barChart(bars, { title: 'Expectations and the values they read', subtitle: `${r.files.length} file${r.files.length === 1 ? '' : 's'}; ${r.passed ? 'all pass' : 'not all pass'}`, valueTitle: 'value of the expectation\u2019s figure' }),
   );
 }
