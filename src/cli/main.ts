@@ -314,6 +314,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .option('--min-idle <duration>', 'shortest idle window --dd fills, e.g. 200ns (default: every window its pulses fit in)')
     .addOption(new Option('--observe <pauli...>', 'observables to extrapolate, qubit 0 leftmost (repeatable or comma-separated), besides the circuit\'s observe:'))
     .option('--json', 'print one JSON object instead of the tables')
+    .option('--html <file>', 'also write a self-contained HTML report: observables and distributions as bars and tables')
     .option('--threads <n>', 'threads sharing each pass on 9+ qubits (default: the machine\'s cores; 1 = off)', parseThreads)
     .option('--no-color', 'plain text even on a terminal (NO_COLOR is respected too)')
     .addHelpText(
@@ -323,6 +324,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
         '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,3,5 --fold            as a device would\n' +
         '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,1.5,2 --fold random --seed 4 --fit linear\n' +
         '  fray mitigate circuits/mitigation/ghz-line.yaml --readout bounded --json\n' +
+        '  fray mitigate circuits/mitigation/ghz-line.yaml --zne 1,3,5 --fold --readout bounded --html mitigate.html\n' +
         '  fray mitigate circuits/mitigation/ghz-line.yaml --dd xy4 --min-idle 200ns --zne 1,3,5 --fold\n' +
         '  fray mitigate circuits/mitigation/ghz-line.yaml --twirl 50 --seed 2 --zne 1,3,5 --fold --fit exponential\n' +
         '\nThe noise scale multiplies every noise strength (as --noise-scale does). Folding turns each gate G into\n' +

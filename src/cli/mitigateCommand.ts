@@ -9,7 +9,9 @@ import { parseDuration } from '../format/duration.js';
 import { renderMitigationReport } from './mitigateReport.js';
 import { toJson } from '../results/json.js';
 import { makeStyle, wantColor } from './style.js';
-import { UsageError, type CliIO } from './main.js';
+import { UsageError, VERSION, type CliIO } from './main.js';
+import { writeHtmlReport } from './htmlReport.js';
+import { mitigatePage } from '../html/index.js';
 import { parseObserveOptions, targetOf } from './options.js';
 import { recipeOptions } from '../mitigation/recipe.js';
 
@@ -67,6 +69,7 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
     ...(opts['threads'] !== undefined ? { run: { threads: opts['threads'] as number } } : {}),
   };
   const result = mitigate(loaded, options);
+  await writeHtmlReport(opts, io, () => mitigatePage(result, VERSION));
   if (opts['json']) {
     io.stdout.write(toJson(result) + '\n');
     return;

@@ -13,3 +13,4 @@ export { budgetPage, budgetTable, lossName, lossText, SHOWN_ZERO_LOSS } from './
 export { sweepPage, sweepTable } from './sweepPage.js';
 export type { SweepPageInput } from './sweepPage.js';
 export { checkPage, checkTable } from './checkPage.js';
+export { mitigatePage, mitigationObservableTable, readoutTable, valueText, scaleText, SHOWN_ZERO_VALUE, DRAWN_OUTCOMES } from './mitigatePage.js';

@@ -99,7 +99,7 @@ export async function runPage(sim: Simulation, opts: RunPageOptions): Promise<st
   });
 
   const keys = topOutcomes(r.probabilities, opts.top);
-  const series: Series[] = ['ideal', 'noisy', 'measured'];
+  const series = ['ideal', 'noisy', 'measured'] as const satisfies readonly Series[];
   const bars: ComparisonBar[] = keys.flatMap((k) =>
     series.map((s) => {
       const p = r.probabilities[s][k] ?? 0;

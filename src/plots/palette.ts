@@ -39,9 +39,10 @@ export const IDLE_RAMP = ['#fbf1d6', '#e8a33d', '#8a3b12'] as const;
 
 /**
  * The series of a comparison chart: ideal runs are drawn hollow (white fill, ink outline),
- * noisy ones filled light, measured ones filled dark — three steps of lightness.
+ * noisy ones filled light, measured ones filled dark — three steps of lightness; mitigated
+ * ones (fray mitigate's page) black, the darkest step.
  */
-export const SERIES_FILL = { ideal: '#ffffff', noisy: OKABE_ITO.skyBlue, measured: OKABE_ITO.blue } as const;
+export const SERIES_FILL = { ideal: '#ffffff', noisy: OKABE_ITO.skyBlue, measured: OKABE_ITO.blue, mitigated: OKABE_ITO.black } as const;
 
 /** A series of a comparison chart (a key of SERIES_FILL). */
 export type Series = keyof typeof SERIES_FILL;

@@ -120,6 +120,33 @@ describe('--html on the study commands', () => {
     expect(html).toMatch(/>FAIL · bad\.yaml · state&gt;=0\.995</);
   });
 
+  it('mitigate: the observable and readout tables hold the --json figures; bars ideal / noisy / mitigated', async () => {
+    const out = pagePath();
+    const r = await fray('mitigate', 'circuits/mitigation/ghz-line.yaml', '--zne', '1,3,5', '--fold', '--readout', 'bounded', '--json', '--html', out);
+    expect(r.code).toBe(0);
+    const json = JSON.parse(r.out);
+    const html = readFileSync(out, 'utf8');
+    expectSelfContained(html);
+    const v = (x: number) => (Math.abs(x) < 5e-7 ? 0 : x).toFixed(6);
+    const names = Object.keys(json.observables);
+    expect(names.length).toBeGreaterThan(0);
+    expect(tableRows(html, 'observables')).toEqual(
+      names.map((k) => {
+        const o = json.observables[k];
+        return [k, v(o.ideal), v(o.noisy), v(o.mitigated), v(Math.abs(o.noisy - o.ideal)), v(Math.abs(o.mitigated - o.ideal)), o.stderr === null ? '—' : v(o.stderr), ...o.points.map((p: any) => v(p.value))];
+      }),
+    );
+    const readout = tableRows(html, 'readout');
+    expect(readout.map((row) => row[0])).toEqual(Object.keys(json.readout.ideal).concat(Object.keys(json.readout.measured)).filter((k, i, a) => a.indexOf(k) === i).sort());
+    for (const row of readout) expect(row.slice(1)).toEqual([json.readout.ideal, json.readout.measured, json.readout.mitigated].map((d) => v(d[row[0]!] ?? 0)));
+    expect(tableRows(html, 'distribution')).toEqual([
+      ['total variation distance', v(json.distribution.tvd_before), v(json.distribution.tvd_after)],
+      ['classical fidelity', v(json.distribution.classical_before), v(json.distribution.classical_after)],
+    ]);
+    // the legends of both charts name the mitigated series
+    expect(html.match(/>mitigated<\/text>/g)?.length).toBe(2);
+  });
+
   it('an --html path that cannot be written is an input error (exit 2) naming the option, on every study command', async () => {
     const nowhere = join(mkdtempSync(join(tmpdir(), 'fray-html-')), 'missing', 'page.html');
     const good = tempFile('good.yaml', SMALL('expect:\n  - state >= 0.98\n'));
@@ -128,6 +155,7 @@ describe('--html on the study commands', () => {
       ['sweep', 'circuits/ghz5.yaml', '--vary', 'noise-scale=0,1', '--quiet', '--jobs', '1'],
       ['budget', good],
       ['check', good],
+      ['mitigate', 'circuits/mitigation/ghz-line.yaml', '--readout', 'bounded'],
     ];
     for (const args of runs) {
       const r = await fray(...args, '--html', nowhere);
