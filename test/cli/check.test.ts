@@ -2,18 +2,11 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { XMLParser } from 'fast-xml-parser';
 import { fray, LOCATED, tempFile } from '../helpers/cli.js';
+import { CHECK_CIRCUIT } from '../helpers/checkCircuit.js';
 
 const DEMO = 'circuits/mitigation/ghz-line.yaml';
 
-// one qubit, x then depolarizing 0.02: ⟨Z⟩ = −0.98, P(1) = 0.99, state fidelity 0.99 (derived from the depolarizing definition)
-const SMALL = (extra: string) => `qubits: 1
-noise:
-  gates:
-    all: { depolarizing: 0.02 }
-observe: [Z]
-steps:
-  - x: 0
-${extra}`;
+const SMALL = CHECK_CIRCUIT;
 
 describe('fray check', () => {
   it('exit 0 when every expectation holds, 3 when one fails, with one table row each', async () => {

@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { XMLValidator } from 'fast-xml-parser';
 import { describe, expect, it } from 'vitest';
 import { fray, tempFile } from '../helpers/cli.js';
+import { CHECK_CIRCUIT } from '../helpers/checkCircuit.js';
 
 /** A fresh path for a page. */
 function pagePath(): string {
@@ -26,15 +27,7 @@ function expectSelfContained(html: string, svg = true): void {
   if (svg) expect(html).toMatch(/<figure><svg [^>]*xmlns="http:\/\/www\.w3\.org\/2000\/svg"/);
 }
 
-// one qubit, x then depolarizing 0.02 on every gate (as in test/cli/check.test.ts): state fidelity 0.99
-const SMALL = (extra: string) => `qubits: 1
-noise:
-  gates:
-    all: { depolarizing: 0.02 }
-observe: [Z]
-steps:
-  - x: 0
-${extra}`;
+const SMALL = CHECK_CIRCUIT;
 
 describe('--html on the study commands', () => {
   it('compare: the ranked table holds the --json figures, and the ranking chart', async () => {
