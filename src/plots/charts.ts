@@ -57,6 +57,12 @@ export function lineChart(points: readonly LinePoint[], o: LineChartOptions): To
   } as TopLevelSpec;
 }
 
+/** Size of a heat-map cell, px: room for a value printed to 3 decimals. */
+const HEAT_CELL_WIDTH = 44;
+const HEAT_CELL_HEIGHT = 22;
+/** The lower share of a heat map's value range whose cells are dark enough to take white text. */
+const HEAT_DARK_SHARE = 0.4;
+
 /** One cell of a heat map. */
 export interface HeatCell {
   readonly x: number;
@@ -67,17 +73,24 @@ export interface HeatCell {
 /** A metric over two varied keys, as coloured cells with the value printed in each. */
 export function heatMap(cells: readonly HeatCell[], o: { title: string; subtitle?: string; xTitle: string; yTitle: string; valueTitle: string }): TopLevelSpec {
   const fmt = (v: number) => String(Number(v.toPrecision(4)));
+  // the scheme runs dark to light: white text on the darkest part of the range
+  const values = cells.map((c) => c.value);
+  const [lo, hi] = [Math.min(...values), Math.max(...values)];
+  const darkBelow = lo + HEAT_DARK_SHARE * (hi - lo);
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     title: o.subtitle !== undefined ? { text: o.title, subtitle: o.subtitle } : o.title,
     data: { values: cells.map((c) => ({ x: fmt(c.x), y: fmt(c.y), xn: c.x, yn: c.y, value: c.value })) },
+    // cells wide enough for the value printed in them (vega-lite's default step of 20 px is not)
+    width: { step: HEAT_CELL_WIDTH },
+    height: { step: HEAT_CELL_HEIGHT },
     encoding: {
       x: { field: 'x', type: 'ordinal', title: o.xTitle, sort: { field: 'xn' } },
       y: { field: 'y', type: 'ordinal', title: o.yTitle, sort: { field: 'yn', order: 'descending' } },
     },
     layer: [
       { mark: 'rect', encoding: { color: { field: 'value', type: 'quantitative', title: o.valueTitle, scale: { scheme: HEATMAP_SCHEME } } } },
-      { mark: { type: 'text', fontSize: 9 }, encoding: { text: { field: 'value', type: 'quantitative', format: '.3f' }, color: { value: '#222222' } } },
+      { mark: { type: 'text', fontSize: 9 }, encoding: { text: { field: 'value', type: 'quantitative', format: '.3f' }, color: { condition: { test: `datum.value < ${darkBelow}`, value: '#ffffff' }, value: '#222222' } } },
     ],
     config: PLOT_CONFIG,
   } as TopLevelSpec;

@@ -70,6 +70,18 @@ describe('--html on the study commands', () => {
     expect(html).toContain('target state&gt;=0.9');
   });
 
+  it('sweep: two varied keys draw a heat map whose cells print their value, white on the dark end of the scale', async () => {
+    const out = pagePath();
+    const r = await fray('sweep', 'circuits/ghz5.yaml', '--vary', 'noise-scale=0,3', '--vary', 'gates.cx.error=0.002,0.01', '--quiet', '--jobs', '1', '--html', out);
+    expect(r.code).toBe(0);
+    const html = readFileSync(out, 'utf8');
+    expectSelfContained(html);
+    const states = tableRows(html, 'sweep').map((row) => Number(row[2]));
+    const fill = (v: number) => new RegExp(`<text aria-label="[^"]*value: ${v.toFixed(3)}"[^>]*fill="([^"]+)"`).exec(html)?.[1];
+    expect(fill(Math.min(...states))).toBe('#ffffff');
+    expect(fill(Math.max(...states))).toBe('#222222');
+  });
+
   it('sweep: three varied keys get the table and a note instead of a picture', async () => {
     const out = pagePath();
     const r = await fray('sweep', 'circuits/ghz5.yaml', '--vary', 'noise-scale=1,2', '--vary', 'gates.cx.error=0.01,0.02', '--vary', 'qubits.all.t1=50us,100us', '--quiet', '--jobs', '1', '--html', out);
