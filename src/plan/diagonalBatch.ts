@@ -81,15 +81,17 @@ export function diagonalTable(members: readonly DiagonalMember[], bin: readonly 
     const dm = 1 << km;
     const dm2 = dm * dm;
     const S = m.superop.data;
-    const local = (x: number): number => {
+    // the member's bits of every bin index, computed once (not once per table entry)
+    const local = new Int32Array(d);
+    for (let x = 0; x < d; x++) {
       let v = 0;
       for (let j = 0; j < km; j++) v = (v << 1) | ((x >> (k - 1 - pos[j]!)) & 1);
-      return v;
-    };
+      local[x] = v;
+    }
     for (let row = 0; row < d; row++) {
-      const am = local(row);
+      const am = local[row]!;
       for (let col = 0; col < d; col++) {
-        const idx = am + local(col) * dm;
+        const idx = am + local[col]! * dm;
         const fr = S[2 * (idx * dm2 + idx)]!;
         const fi = S[2 * (idx * dm2 + idx) + 1]!;
         const e = 2 * (row * d + col);
