@@ -83,9 +83,14 @@ function mutateOnce(text: string, rng: () => number): string {
 
 /** `text` after 1 to `most` seeded edits. */
 export function mutateYaml(text: string, rng: () => number, most = 3): string {
+  return repeatEdits(text, rng, most, mutateOnce);
+}
+
+/** `text` after 1 to `most` applications of `edit`. */
+function repeatEdits(text: string, rng: () => number, most: number, edit: (t: string, rng: () => number) => string): string {
   let t = text;
   const edits = 1 + Math.floor(rng() * most);
-  for (let i = 0; i < edits; i++) t = mutateOnce(t, rng);
+  for (let i = 0; i < edits; i++) t = edit(t, rng);
   return t;
 }
 
@@ -127,8 +132,5 @@ function mutateTextOnce(text: string, rng: () => number): string {
 
 /** `text` (a program, not YAML) after 1 to `most` seeded token or character edits. Pure function of (text, rng). */
 export function mutateText(text: string, rng: () => number, most = 3): string {
-  let t = text;
-  const edits = 1 + Math.floor(rng() * most);
-  for (let i = 0; i < edits; i++) t = mutateTextOnce(t, rng);
-  return t;
+  return repeatEdits(text, rng, most, mutateTextOnce);
 }
