@@ -1,4 +1,6 @@
-import { readFileSync, writeFileSync } from 'node:fs';
+import { writeFileSync } from 'node:fs';
+import { MAX_DATA_FILE_BYTES, readBounded } from '../api/readInput.js';
+import { fileStart, InputError } from '../format/problem.js';
 import { baselineOf, check, DEFAULT_BASELINE_TOLERANCE, type Baseline, type CheckResult } from '../mitigation/check.js';
 import { toJson } from '../results/json.js';
 import { checkToJunit } from './junit.js';
@@ -28,19 +30,22 @@ function parseTolerance(v: string): number {
   return x;
 }
 
-/** A baseline file written by --write-baseline; anything else is a usage error naming the file. */
+/** A baseline file written by --write-baseline; anything else is an input error located at the file. */
 function readBaseline(path: string): Baseline {
+  const refuse = (why: string) => new InputError([{ ...fileStart(path), severity: 'error', code: 'bad-baseline', message: `--baseline: ${why}` }]);
   let data: unknown;
+  const read = readBounded(path, MAX_DATA_FILE_BYTES);
+  if ('error' in read) throw refuse(`cannot read '${path}': ${read.error}`);
   try {
-    data = JSON.parse(readFileSync(path, 'utf8'));
+    data = JSON.parse(read.text);
   } catch (e) {
-    throw new UsageError(`--baseline ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : `not JSON (${(e as Error).message})`}`);
+    throw refuse(`not JSON (${(e as Error).message})`);
   }
   const b = data as Partial<Baseline>;
   const ok =
     typeof b === 'object' && b !== null && b.fray_baseline === 1 && typeof b.files === 'object' && b.files !== null &&
     Object.values(b.files).every((f) => typeof f === 'object' && f !== null && Object.values(f).every((x) => typeof x === 'number'));
-  if (!ok) throw new UsageError(`--baseline ${path}: not a fray baseline (write one with --write-baseline)`);
+  if (!ok) throw refuse('not a fray baseline (write one with --write-baseline)');
   return b as Baseline;
 }
 

@@ -1,5 +1,5 @@
-import { readFileSync } from 'node:fs';
-import { fileStart, InputError } from '../format/problem.js';
+import { MAX_DATA_FILE_BYTES, readInputFile } from '../api/readInput.js';
+import { fileStart, InputError, ProblemList } from '../format/problem.js';
 import { formatOf, mergeSweepFiles } from '../studies/index.js';
 import { writeOutput } from './outputFiles.js';
 import { UsageError, type CliIO } from './main.js';
@@ -10,13 +10,9 @@ export async function mergeCommand(parts: string[], opts: Record<string, unknown
   const format = formatOf(out);
   if (format === undefined) throw new UsageError(`--out ${out}: expected a .csv or .jsonl file`);
   for (const p of parts) if (formatOf(p) !== format) throw new UsageError(`${p}: every part must be a .${format} file like --out`);
-  const texts = parts.map((path) => {
-    try {
-      return { path, text: readFileSync(path, 'utf8') };
-    } catch (e) {
-      throw new InputError([{ ...fileStart(path), severity: 'error', code: 'cannot-read', message: `cannot read sweep part '${path}': ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (e as Error).message}` }]);
-    }
-  });
+  const problems = new ProblemList();
+  const texts = parts.map((path) => ({ path, text: readInputFile(path, fileStart(path), 'sweep part', problems, MAX_DATA_FILE_BYTES) ?? '' }));
+  problems.throwIfErrors();
   const merged = mergeSweepFiles(texts, format);
   if ('error' in merged) throw new InputError([{ ...fileStart(parts[0]!), severity: 'error', code: 'bad-merge', message: `merge: ${merged.error}` }]);
   writeOutput('--out', out, merged.text);

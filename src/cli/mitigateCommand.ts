@@ -6,6 +6,7 @@ import { MAX_FOLD_SCALE, type FoldOrder } from '../transforms/fold.js';
 import { MAX_TWIRL_INSTANCES } from '../transforms/twirl.js';
 import { DECOUPLING_SEQUENCES, type DecouplingSequence } from '../transforms/decouple.js';
 import { parseDuration } from '../format/duration.js';
+import { fileStart, InputError, type SourcePosition } from '../format/problem.js';
 import { renderMitigationReport } from './mitigateReport.js';
 import { toJson } from '../results/json.js';
 import { makeStyle, wantColor } from './style.js';
@@ -41,8 +42,10 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
   const { file: _file, ...target } = targetOf(file, opts);
   const loaded = loadCircuit(file, target);
   const recipe = loaded.circuit.mitigation;
+  // What the circuit file lacks is located at it: its 'mitigation:' block when that is the recipe, else its start.
+  const refuse = (at: SourcePosition, code: string, message: string) => new InputError([{ ...at, severity: 'error', code, message }]);
   if (!fromCommandLine && recipe === undefined) {
-    throw new UsageError("nothing to mitigate: give --zne SCALES, --readout METHOD, --dd SEQUENCE, --twirl [N], or several (or a 'mitigation:' block in the circuit file)");
+    throw refuse(fileStart(loaded.circuit.file), 'nothing-to-mitigate', "nothing to mitigate: give --zne SCALES, --readout METHOD, --dd SEQUENCE, --twirl [N], or several (or a 'mitigation:' block in the circuit file)");
   }
   const seed = opts['seed'] as number | undefined;
   const chosen: MitigateOptions = fromCommandLine
@@ -57,11 +60,12 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
     : recipeOptions(recipe!);
   const hasObservables = observe.length > 0 || loaded.circuit.observe.length > 0;
   const where = fromCommandLine ? '' : " (the file's 'mitigation:' block)";
+  const at = fromCommandLine ? fileStart(loaded.circuit.file) : recipe!.at;
   if (chosen.zne !== undefined && !hasObservables) {
-    throw new UsageError(`zero-noise extrapolation${where} extrapolates Pauli observables: give --observe P (or list them under 'observe:' in the circuit)`);
+    throw refuse(at, 'no-observables', `zero-noise extrapolation${where} extrapolates Pauli observables: give --observe P (or list them under 'observe:' in the circuit)`);
   }
   if (chosen.zne === undefined && chosen.readout === undefined && !hasObservables) {
-    throw new UsageError(`decoupling and twirling${where} are judged by Pauli observables: give --observe P (or list them under 'observe:'), or a readout correction to compare distributions`);
+    throw refuse(at, 'no-observables', `decoupling and twirling${where} are judged by Pauli observables: give --observe P (or list them under 'observe:'), or a readout correction to compare distributions`);
   }
   const options: MitigateOptions = {
     ...chosen,

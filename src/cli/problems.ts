@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { MAX_DATA_FILE_BYTES, readBounded } from '../api/readInput.js';
 import { formatProblem, type Problem } from '../format/problem.js';
 import type { Style } from './style.js';
 
@@ -11,11 +11,9 @@ export function renderProblems(problems: readonly Problem[], style: Style, showS
   const cache = new Map<string, string[] | null>();
   const lineOf = (file: string, line: number): string | undefined => {
     if (!cache.has(file)) {
-      try {
-        cache.set(file, readFileSync(file, 'utf8').split(/\r?\n/));
-      } catch {
-        cache.set(file, null);
-      }
+      // bounded: the file a problem names may be the device or huge file it complains about
+      const r = readBounded(file, MAX_DATA_FILE_BYTES);
+      cache.set(file, 'text' in r ? r.text.split(/\r?\n/) : null);
     }
     return cache.get(file)?.[line - 1];
   };

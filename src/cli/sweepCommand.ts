@@ -1,6 +1,7 @@
-import { closeSync, existsSync, readFileSync, truncateSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, truncateSync, writeSync } from 'node:fs';
 import { parse } from 'csv-parse/sync';
-import { fileStart, InputError, warningText } from '../format/problem.js';
+import { MAX_DATA_FILE_BYTES, readInputFile } from '../api/readInput.js';
+import { fileStart, InputError, ProblemList, warningText } from '../format/problem.js';
 import {
   checkSweep,
   csvColumns,
@@ -68,7 +69,7 @@ export async function sweepCommand(file: string, opts: Record<string, unknown>, 
     const header = headerOf(plan, format, shard);
     const columns = csvColumns(plan, observables);
     if (opts['resume'] === true && existsSync(out)) {
-      const text = readFileSync(out, 'utf8');
+      const text = readSweepOutput(out);
       const c = readSweepFile(text, format);
       if ('error' in c) throw new InputError([{ ...fileStart(out), severity: 'error', code: 'bad-sweep-file', message: `--resume: ${out}: ${c.error}` }]);
       if (c.header.fingerprint !== header.fingerprint || c.header.shard !== header.shard) {
@@ -114,6 +115,14 @@ export async function sweepCommand(file: string, opts: Record<string, unknown>, 
   else if (opts['quiet'] !== true) io.stderr.write(`sweep: ${rows.length} point${rows.length === 1 ? '' : 's'} written to ${out}${skip.size > 0 ? ` (${skip.size} already there)` : ''}\n`);
 }
 
+/** The text of the sweep output `out` read back (bounded by MAX_DATA_FILE_BYTES); a located InputError when it cannot be. */
+function readSweepOutput(out: string): string {
+  const problems = new ProblemList();
+  const text = readInputFile(out, fileStart(out), 'sweep output', problems, MAX_DATA_FILE_BYTES);
+  problems.throwIfErrors();
+  return text!;
+}
+
 /** The machine's cores (piscina's own default is the same). */
 function defaultJobs(): number {
   return Math.max(1, (globalThis as { navigator?: { hardwareConcurrency?: number } }).navigator?.hardwareConcurrency ?? 1);
@@ -121,7 +130,7 @@ function defaultJobs(): number {
 
 /** Every row of the output (after a resume, the earlier ones too) for the plot, read back from the file. */
 function readAllRows(out: string, format: 'csv' | 'jsonl', fresh: readonly SweepRow[]): SweepRow[] {
-  const text = readFileSync(out, 'utf8');
+  const text = readSweepOutput(out);
   if (format === 'jsonl') {
     const c = readSweepFile(text, format);
     if ('error' in c) return [...fresh];

@@ -1,5 +1,7 @@
-import { readFileSync, writeFileSync } from 'node:fs';
+import { writeFileSync } from 'node:fs';
 import { loadCircuit } from '../api/loadCircuit.js';
+import { readInputFile } from '../api/readInput.js';
+import { fileStart, ProblemList } from '../format/problem.js';
 import { formatDuration, parseDuration } from '../format/duration.js';
 import { writeTransformedCircuit } from '../format/writeTransformed.js';
 import { insertDecoupling, DECOUPLING_SEQUENCES, type DecouplingSequence } from '../transforms/decouple.js';
@@ -42,7 +44,10 @@ export async function transformCommand(file: string, opts: Record<string, unknow
     circuit = r.circuit;
     header.push(`unitary folding to scale ${r.scale} (G -> G (G^dagger G)^k; folds per gate application in order: ${r.folds.join(' ')})`);
   }
-  const text = writeTransformedCircuit(readFileSync(file, 'utf8'), circuit, header);
+  const read = new ProblemList();
+  const original = readInputFile(file, fileStart(file), 'circuit file', read);
+  read.throwIfErrors();
+  const text = writeTransformedCircuit(original!, circuit, header);
   if (opts['out'] === undefined) {
     io.stdout.write(text);
     return;

@@ -22,6 +22,7 @@ import { extrapolate, fitProblem, type FitKind, type ScalePoint } from './extrap
 import { correctReadout, type ReadoutMethod } from './readoutCorrection.js';
 import { applyReadout, diagonalOf, marginal, toOutcomeMap } from '../results/probabilities.js';
 import { idealDiagonal } from '../results/idealFigures.js';
+import { clampUnit } from '../results/clamp.js';
 import { classicalFidelity, totalVariationDistance } from '../results/fidelity.js';
 import { LISTED_OUTCOME_THRESHOLD } from '../results/report.js';
 
@@ -216,12 +217,7 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
     ...(options.readout !== undefined
       ? { readout: readoutMitigation(pIdeal, pBefore, pRead, confusion, options.readout, measured.length) }
       : {}),
-    distribution: {
-      tvd_before: totalVariationDistance(pIdeal, pBefore),
-      tvd_after: totalVariationDistance(pIdeal, pAfter),
-      classical_before: classicalFidelity(pIdeal, pBefore),
-      classical_after: classicalFidelity(pIdeal, pAfter),
-    },
+    distribution: distributionDistances(pIdeal, pBefore, pAfter, options.readout),
     warnings,
   };
 }
@@ -260,15 +256,29 @@ function readoutMitigation(
   const pFixed = correctReadout(pRead, confusion, method);
   return {
     method,
-    ideal: toOutcomeMap(pIdeal, m, LISTED_OUTCOME_THRESHOLD),
-    measured: toOutcomeMap(pBefore, m, LISTED_OUTCOME_THRESHOLD),
+    ideal: toOutcomeMap(pIdeal.map(clampUnit), m, LISTED_OUTCOME_THRESHOLD),
+    measured: toOutcomeMap(pBefore.map(clampUnit), m, LISTED_OUTCOME_THRESHOLD),
     // an inverse can have negative entries: list every outcome whose magnitude is above the cut
     mitigated: signedOutcomeMap(pFixed, m),
-    tvd_before: totalVariationDistance(pIdeal, pBefore),
-    tvd_after: totalVariationDistance(pIdeal, pFixed),
-    classical_before: classicalFidelity(pIdeal, pBefore),
-    // classicalFidelity counts an inverse's negative entries as 0
-    classical_after: classicalFidelity(pIdeal, pFixed),
+    ...distributionDistances(pIdeal, pBefore, pFixed, method),
+  };
+}
+
+/**
+ * TVD and classical fidelity of the measured distribution to the ideal one, before and after
+ * mitigation. Both lie in [0, 1] for true distributions, so they go through the one clamp of
+ * src/results/clamp.ts. After `inverse` readout correction they do not: the corrected
+ * quasi-distribution may have negative entries (the method's nature, not rounding), so its
+ * TVD can exceed 1 and its classical fidelity (negative entries counted as 0) too; those two
+ * are reported as computed, and so are the corrected entries themselves.
+ */
+export function distributionDistances(pIdeal: Float64Array, pBefore: Float64Array, pAfter: Float64Array, method: ReadoutMethod | undefined) {
+  const after = method === 'inverse' ? (x: number) => x : clampUnit;
+  return {
+    tvd_before: clampUnit(totalVariationDistance(pIdeal, pBefore)),
+    tvd_after: after(totalVariationDistance(pIdeal, pAfter)),
+    classical_before: clampUnit(classicalFidelity(pIdeal, pBefore)),
+    classical_after: after(classicalFidelity(pIdeal, pAfter)),
   };
 }
 

@@ -29,3 +29,8 @@ export function clampUnit(x: number): number {
 export function clampSigned(x: number): number {
   return clampRounding(x, -1, 1);
 }
+
+/** A Bloch vector (x, y, z), each component in [−1, 1] with rounding excess clamped. */
+export function clampBloch(v: [number, number, number]): [number, number, number] {
+  return [clampSigned(v[0]), clampSigned(v[1]), clampSigned(v[2])];
+}

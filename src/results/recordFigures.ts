@@ -6,6 +6,7 @@
  *   fidelity.state = (Σ_r Tr√(√σ_r ρ_r √σ_r))², the Uhlmann–Jozsa fidelity of the two
  *   block-diagonal states (a block-diagonal √ is the √ of each block), with unnormalised blocks;
  *   purity = Σ_r Tr ρ_r²; observables and Bloch vectors of Σ_r ρ_r.
+ * Every figure goes through the one clamp of ./clamp.ts, as in version 1 (./report.ts).
  */
 import type { BranchEnsemble, IdealEnsemble } from '../engine/branches.js';
 import { sumBranches } from '../engine/branches.js';
@@ -15,7 +16,8 @@ import { ensembleToDensityMatrix, MAX_IDEAL_BRANCHES, type IdealState } from '..
 import { classicalFidelity, purity, stateFidelity, totalVariationDistance } from './fidelity.js';
 import { idealBlochVectors, idealDiagonal, idealExpectation } from './idealFigures.js';
 import { blochVectors, pauliExpectation } from './observables.js';
-import { clean, DEFAULT_SEED, LISTED_OUTCOME_THRESHOLD, type Figures } from './report.js';
+import { clampBloch, clampSigned, clampUnit } from './clamp.js';
+import { DEFAULT_SEED, LISTED_OUTCOME_THRESHOLD, type Figures } from './report.js';
 import { sampleCounts } from './sampling.js';
 
 /** What computeRecordFigures needs besides the ensembles. */
@@ -89,9 +91,9 @@ export function computeRecordFigures(
     const c = pMeasured[k]!;
     if (a > LISTED_OUTCOME_THRESHOLD || b > LISTED_OUTCOME_THRESHOLD || c > LISTED_OUTCOME_THRESHOLD) {
       const s = m === 0 ? '' : bitstring(k, m);
-      ideals[s] = clean(a);
-      noisys[s] = clean(b);
-      measureds[s] = clean(c);
+      ideals[s] = clampUnit(a);
+      noisys[s] = clampUnit(b);
+      measureds[s] = clampUnit(c);
     }
   }
   let rootSum = 0;
@@ -105,12 +107,12 @@ export function computeRecordFigures(
   const idealState = idealSum(n, ideal);
   const figures: Figures = {
     probabilities: { ideal: ideals, noisy: noisys, measured: measureds },
-    fidelity: { state: rootSum * rootSum, classical: classicalFidelity(pIdeal, pMeasured) },
-    tvd: totalVariationDistance(pIdeal, pMeasured),
-    purity: pur,
-    bloch: { ideal: idealBlochVectors(idealState), noisy: blochVectors(rho) },
+    fidelity: { state: clampUnit(rootSum * rootSum), classical: clampUnit(classicalFidelity(pIdeal, pMeasured)) },
+    tvd: clampUnit(totalVariationDistance(pIdeal, pMeasured)),
+    purity: clampUnit(pur),
+    bloch: { ideal: idealBlochVectors(idealState).map(clampBloch), noisy: blochVectors(rho).map(clampBloch) },
     ...(input.observe.length > 0
-      ? { observables: Object.fromEntries(input.observe.map((p) => [p, { ideal: idealExpectation(idealState, p), noisy: pauliExpectation(rho, p) }])) }
+      ? { observables: Object.fromEntries(input.observe.map((p) => [p, { ideal: clampSigned(idealExpectation(idealState, p)), noisy: clampSigned(pauliExpectation(rho, p)) }])) }
       : {}),
     ...(input.shots !== undefined ? { counts: sampleCounts(pMeasured, m, input.shots, input.seed ?? DEFAULT_SEED) } : {}),
   };

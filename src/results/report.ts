@@ -5,7 +5,7 @@ import { applyReadout, diagonalOf, marginal, type ReadoutConfusion } from './pro
 import { sampleCounts } from './sampling.js';
 import { idealBlochVectors, idealDiagonal, idealExpectation } from './idealFigures.js';
 import { bitstring } from '../engine/layout.js';
-import { clampSigned, clampUnit } from './clamp.js';
+import { clampBloch, clampSigned, clampUnit } from './clamp.js';
 
 /** Outcomes whose probability exceeds this in any of ideal / noisy / measured are listed (the contract's 1e-15). */
 export const LISTED_OUTCOME_THRESHOLD = 1e-15;
@@ -69,7 +69,7 @@ export function computeFigures(rho: DensityMatrix, ideal: IdealState, input: Rep
     fidelity: { state: clampUnit(stateFidelity(rho, ideal)), classical: clampUnit(classicalFidelity(pIdeal, pMeasured)) },
     tvd: clampUnit(totalVariationDistance(pIdeal, pMeasured)),
     purity: clampUnit(purity(rho)),
-    bloch: { ideal: idealBlochVectors(ideal).map(clampVector), noisy: blochVectors(rho).map(clampVector) },
+    bloch: { ideal: idealBlochVectors(ideal).map(clampBloch), noisy: blochVectors(rho).map(clampBloch) },
   };
   const extra: { observables?: Figures['observables']; counts?: Figures['counts'] } = {};
   if (input.observe.length > 0) {
@@ -87,11 +87,3 @@ export function computeFigures(rho: DensityMatrix, ideal: IdealState, input: Rep
 /** Seed used for --shots when none is given, so that runs repeat by default. */
 export const DEFAULT_SEED = 1;
 
-function clampVector(v: [number, number, number]): [number, number, number] {
-  return [clampSigned(v[0]), clampSigned(v[1]), clampSigned(v[2])];
-}
-
-/** Negative rounding residue (≈ −1e-17) shown as 0. */
-export function clean(x: number): number {
-  return x < 0 && x > -LISTED_OUTCOME_THRESHOLD ? 0 : x;
-}

@@ -1,9 +1,9 @@
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
+import { readInputFile } from '../api/readInput.js';
 import type { RunResult } from '../api/simulate.js';
 import type { Override } from '../format/overrides.js';
 import { instantiate } from '../api/loadCircuit.js';
-import { InputError, ProblemList, type Problem } from '../format/problem.js';
+import { fileStart, InputError, ProblemList, type Problem } from '../format/problem.js';
 import { metricName, metricProblem, observablesOf, type Metric } from './metrics.js';
 import { NOISE_SCALE_KEY, valueText, type Varied } from './ranges.js';
 import { loadOptionsOf, runVariant, SourceCache, type StudyTarget, type VariantChoice } from './variant.js';
@@ -55,8 +55,12 @@ export function planSweep(spec: SweepSpec): SweepPlan {
   if (twice !== undefined) throw new RangeError(`planSweep: '${twice}' is varied twice`);
   const total = spec.vary.reduce((n, v) => n * v.values.length, 1);
   const observe = observablesOf(spec.metrics ?? []);
-  const circuitHash = createHash('sha256').update(readFileSync(spec.file)).digest('hex');
+  // the source first: it refuses an unreadable, special or oversized file with a located error
   const source = new SourceCache().get(spec.file, spec.device);
+  const read = new ProblemList();
+  const text = readInputFile(spec.file, fileStart(spec.file), 'circuit file', read);
+  read.throwIfErrors();
+  const circuitHash = createHash('sha256').update(text!, 'utf8').digest('hex');
   const identity = {
     circuit: circuitHash,
     device: source.deviceSpec ?? null,

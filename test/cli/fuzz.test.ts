@@ -1,6 +1,7 @@
 /**
  * The suite hunts for the next bug (issue 13): a few hundred seeded mutations of the demo
- * circuits, their device profiles and channel files go through the command line in-process,
+ * circuits (version 1, record mode, OpenQASM, the mitigation demo under `fray mitigate`), their
+ * device profiles and channel files go through the command line in-process,
  * and each must keep the contract — exit 0 with finite figures in their ranges, or exit 2
  * with every stderr line `FILE:LINE:COL: message` and nothing on stdout; never exit 1 or a
  * stack trace. A failure prints its seed, its base file and the mutated file.
@@ -11,14 +12,14 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { fray, LOCATED } from '../helpers/cli.js';
-import { mutateYaml } from '../helpers/mutate.js';
+import { mutateText, mutateYaml } from '../helpers/mutate.js';
 import { mulberry32 } from '../helpers/random.js';
 
 /** First seed of the series; case i uses SERIES + i. */
 const SERIES = Number(process.env['FRAY_FUZZ_SEED'] ?? 13_000);
 
 /** Cases per kind of input. */
-const CASES = { circuit: 180, device: 60, channel: 50 } as const;
+const CASES = { circuit: 180, device: 60, channel: 50, record: 36, qasm: 45, mitigate: 24 } as const;
 
 /** Largest |sum of a probability map − 1| accepted (the listed outcomes drop below 1e-15 each; rounding). */
 const SUM_TOLERANCE = 1e-9;
@@ -34,6 +35,14 @@ const CIRCUITS = [
   'zz-spectator-a.yaml',
   'zz-spectator-b.yaml',
 ];
+/** Record-mode demos (format version 2, part B). */
+const RECORD_CIRCUITS = ['active-reset.yaml', 'teleport.yaml', 'repetition-code.yaml'];
+/** OpenQASM demos, run on the device their headers name. */
+const QASM_PROGRAMS = ['ghz-wait.qasm', 'qft4.qasm', 'teleport.qasm'];
+const QASM_DEVICE = 'ring4-qasm.yaml';
+/** The mitigation demo, under `fray mitigate` with these options (ZNE at two scales, bounded readout correction). */
+const MITIGATION_DEMO = 'ghz-line.yaml';
+const MITIGATE_FLAGS = ['--zne', '1,3', '--readout', 'bounded', '--json'];
 const DEVICES: readonly [device: string, circuit: string][] = [
   ['bench-line5.yaml', 'ghz5.yaml'],
   ['quad-square.yaml', 'qpe3-alap.yaml'],
@@ -60,11 +69,12 @@ function workspace(): string {
   mkdirSync(join(dir, 'devices'));
   for (const c of CIRCUITS) copyFileSync(join('circuits', c), join(dir, c));
   for (const [d] of DEVICES) copyFileSync(join('circuits', 'devices', d), join(dir, 'devices', d));
+  copyFileSync(join('circuits', 'devices', QASM_DEVICE), join(dir, 'devices', QASM_DEVICE));
   return dir;
 }
 
 /** Why a run result breaks the contract, or undefined when it keeps it. */
-function breach(r: { code: number; out: string; err: string }, kind: 'run' | 'channel'): string | undefined {
+function breach(r: { code: number; out: string; err: string }, kind: 'run' | 'channel' | 'mitigate'): string | undefined {
   if (r.code === 2) {
     if (r.out !== '') return 'exit 2 with output on stdout';
     const lines = r.err.trimEnd().split('\n');
@@ -79,7 +89,7 @@ function breach(r: { code: number; out: string; err: string }, kind: 'run' | 'ch
   } catch {
     return 'exit 0 without valid JSON on stdout';
   }
-  return kind === 'run' ? runFiguresBreach(j) : channelBreach(j);
+  return kind === 'run' ? runFiguresBreach(j) : kind === 'mitigate' ? mitigationBreach(j) : channelBreach(j);
 }
 
 const inRange = (x: unknown, lo: number, hi: number): boolean => typeof x === 'number' && Number.isFinite(x) && x >= lo && x <= hi;
@@ -106,6 +116,22 @@ function runFiguresBreach(j: Record<string, unknown>): string | undefined {
   return undefined;
 }
 
+/** Figures of `fray mitigate --json` (bounded readout correction) outside their ranges (definitions: docs/mitigation.md). */
+function mitigationBreach(j: Record<string, unknown>): string | undefined {
+  const d = j['distribution'] as Record<string, unknown>;
+  for (const k of ['tvd_before', 'tvd_after', 'classical_before', 'classical_after']) if (!inRange(d[k], 0, 1)) return `distribution.${k} = ${String(d[k])} is not in [0, 1]`;
+  for (const [p, o] of Object.entries(j['observables'] as Record<string, { ideal: unknown; noisy: unknown; mitigated: unknown }>)) {
+    if (!inRange(o.ideal, -1, 1) || !inRange(o.noisy, -1, 1)) return `⟨${p}⟩ out of [−1, 1]`;
+    // extrapolation may leave [−1, 1]; it must stay a number
+    if (!inRange(o.mitigated, -Number.MAX_VALUE, Number.MAX_VALUE)) return `mitigated ⟨${p}⟩ = ${String(o.mitigated)}`;
+  }
+  const readout = j['readout'] as Record<string, Record<string, unknown>> | undefined;
+  for (const which of ['ideal', 'measured', 'mitigated'] as const) {
+    if (readout !== undefined && !Object.values(readout[which]!).every((x) => inRange(x, 0, 1))) return `a readout.${which} probability is not in [0, 1]`;
+  }
+  return undefined;
+}
+
 /** Channel figures that did not survive as numbers (JSON writes NaN as null). */
 function channelBreach(j: Record<string, unknown>): string | undefined {
   const channels = j['channels'] as Record<string, unknown>[] | undefined;
@@ -118,7 +144,7 @@ function channelBreach(j: Record<string, unknown>): string | undefined {
 }
 
 /** Runs `args` and fails with the seed, the mutated file and the output when the contract is broken. */
-async function expectContract(label: string, text: string, kind: 'run' | 'channel', args: string[]): Promise<void> {
+async function expectContract(label: string, text: string, kind: 'run' | 'channel' | 'mitigate', args: string[]): Promise<void> {
   const r = await fray(...args);
   const why = breach(r, kind);
   if (why !== undefined) expect.fail(`fuzz ${label}: ${why}\n--- mutated file ---\n${text}\n--- stderr ---\n${r.err}`);
@@ -137,6 +163,42 @@ describe(`fuzz: mutated inputs keep the exit-status contract (series ${SERIES})`
       const path = join(dir, `m-${base}`);
       writeFileSync(path, text);
       await expectContract(`seed ${seed} (mulberry32), mutating circuits/${base}`, text, 'run', ['run', path, ...RUN_FLAGS]);
+    }
+  }, 120_000);
+
+  it(`${CASES.record} mutated record-mode circuits`, async () => {
+    const dir = workspace();
+    for (let i = 0; i < CASES.record; i++) {
+      const seed = SERIES + 300_000 + i;
+      const base = RECORD_CIRCUITS[i % RECORD_CIRCUITS.length]!;
+      const text = mutateYaml(readFileSync(join('circuits', base), 'utf8'), mulberry32(seed));
+      const path = join(dir, `m-${base}`);
+      writeFileSync(path, text);
+      // the record branches of repetition-code.yaml need ≈40 MiB
+      await expectContract(`seed ${seed} (mulberry32), mutating circuits/${base}`, text, 'run', ['run', path, ...RUN_FLAGS, '--max-memory', '128MiB']);
+    }
+  }, 120_000);
+
+  it(`${CASES.qasm} mutated OpenQASM programs`, async () => {
+    const dir = workspace();
+    for (let i = 0; i < CASES.qasm; i++) {
+      const seed = SERIES + 400_000 + i;
+      const base = QASM_PROGRAMS[i % QASM_PROGRAMS.length]!;
+      const text = mutateText(readFileSync(join('circuits', 'qasm', base), 'utf8'), mulberry32(seed));
+      const path = join(dir, `m-${base}`);
+      writeFileSync(path, text);
+      await expectContract(`seed ${seed} (mulberry32), mutating circuits/qasm/${base}`, text, 'run', ['run', path, '--device', join(dir, 'devices', QASM_DEVICE), ...RUN_FLAGS]);
+    }
+  }, 120_000);
+
+  it(`${CASES.mitigate} mutated mitigation circuits under fray mitigate`, async () => {
+    const dir = workspace();
+    for (let i = 0; i < CASES.mitigate; i++) {
+      const seed = SERIES + 500_000 + i;
+      const text = mutateYaml(readFileSync(join('circuits', 'mitigation', MITIGATION_DEMO), 'utf8'), mulberry32(seed));
+      const path = join(dir, `m-${MITIGATION_DEMO}`);
+      writeFileSync(path, text);
+      await expectContract(`seed ${seed} (mulberry32), mutating circuits/mitigation/${MITIGATION_DEMO}`, text, 'mitigate', ['mitigate', path, ...MITIGATE_FLAGS]);
     }
   }, 120_000);
 

@@ -44,11 +44,18 @@ describe('fray mitigate', () => {
       expect(err).toMatch(/^fray: /);
       expect(err).not.toMatch(/\n\s+at /);
     }
+    // what the circuit file lacks is a located input error (found by the fuzz test, seed 507011)
     const noObs = tempFile('plain.yaml', 'qubits: 1\nsteps:\n  - x: 0\n');
-    expect((await fray('mitigate', noObs, '--zne', '1,3')).err).toMatch(/--observe/);
+    const zne = await fray('mitigate', noObs, '--zne', '1,3');
+    expect(zne.code).toBe(2);
+    expect(zne.err).toMatch(/^.*plain\.yaml:1:1: zero-noise extrapolation extrapolates Pauli observables: give --observe P/);
     const nothing = await fray('mitigate', noObs);
     expect(nothing.code).toBe(2);
-    expect(nothing.err).toMatch(/nothing to mitigate/);
+    expect(nothing.err).toMatch(/^.*plain\.yaml:1:1: nothing to mitigate/);
+    const block = tempFile('block.yaml', 'qubits: 1\nsteps:\n  - x: 0\nmitigation:\n  twirl: true\n');
+    const twirled = await fray('mitigate', block);
+    expect(twirled.code).toBe(2);
+    expect(twirled.err).toMatch(/^.*block\.yaml:5:3: decoupling and twirling \(the file's 'mitigation:' block\) are judged by Pauli observables/);
   });
 
   it('scales that fold to the same circuit are a located input error', async () => {

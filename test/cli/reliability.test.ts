@@ -10,7 +10,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it, vi } from 'vitest';
 import { Alias } from 'yaml';
-import { readInputFile } from '../../src/api/readInput.js';
+import { MAX_DATA_FILE_BYTES, readBounded, readInputFile } from '../../src/api/readInput.js';
+import { renderProblems } from '../../src/cli/problems.js';
+import { makeStyle } from '../../src/cli/style.js';
 import { thermalRelaxationChannel } from '../../src/channels/builtins.js';
 import { readChannelDefinitions } from '../../src/format/channelDefinitions.js';
 import { formatProblem, ProblemList } from '../../src/format/problem.js';
@@ -205,6 +207,43 @@ describe('issue 13 bug 10: unbounded reads', () => {
     const big = tempFile('big.yaml', '#'.repeat(MAX_INPUT_BYTES + 10));
     expect(readInputFile(big, { file: big, line: 1, col: 1 }, 'circuit file', problems)).toBeUndefined();
     expect(problems.items[0]!.code).toBe('file-too-large');
+  });
+});
+
+describe('issue 13 bug 10: every user-named file goes through the bounded reader', () => {
+  it('sweep circuit, sweep output for --resume, sweep parts, --baseline and transform input: a device or FIFO is a located exit-2 error, never a hang', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'fray-fifo-'));
+    const fifo = (name: string) => {
+      const p = join(dir, name);
+      execFileSync('mkfifo', [p]);
+      return p;
+    };
+    const ok = tempFile('ok.yaml', 'qubits: 1\nsteps:\n  - h: 0\n');
+    const part = fifo('part.jsonl');
+    const cases = [
+      ['sweep', '/dev/zero', '--vary', 'noise-scale=0,1'],
+      ['sweep', ok, '--vary', 'noise-scale=0,1', '--out', fifo('out.jsonl'), '--resume'],
+      ['merge', part, '--out', join(dir, 'all.jsonl')],
+      ['check', ok, '--baseline', '/dev/zero'],
+      ['transform', fifo('t.yaml'), '--fold', '3'],
+    ];
+    for (const args of cases) {
+      const r = await fray(...args);
+      const [line] = expectInputError(r, ['1:1']);
+      expect(line, args.join(' ')).toMatch(/cannot read .*not a regular file/);
+    }
+  });
+
+  it('a data file over MAX_DATA_FILE_BYTES is refused after reading at most that plus one byte', () => {
+    const big = tempFile('big.jsonl', '#'.repeat(2000));
+    expect(readBounded(big, 1000)).toEqual({ error: 'it is larger than 0.9765625 KiB', tooLarge: true });
+    expect(readBounded(big, 2000)).toEqual({ text: '#'.repeat(2000) });
+    expect(MAX_DATA_FILE_BYTES).toBeGreaterThan(MAX_INPUT_BYTES);
+  });
+
+  it('the source excerpt of a problem at a device file does not read the device', () => {
+    const text = renderProblems([{ file: '/dev/zero', line: 1, col: 1, severity: 'error', code: 'cannot-read', message: 'x' }], makeStyle(false), true);
+    expect(text).toBe('/dev/zero:1:1: x\n');
   });
 });
 

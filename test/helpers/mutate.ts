@@ -4,6 +4,8 @@
  * infinities, huge, tiny, negative), names that are object properties, near-miss and
  * reserved words, broken YAML punctuation, anchors and aliases, deleted, repeated and
  * re-indented lines, control characters in quoted values. Pure function of (text, rng).
+ * mutateText does the same for program text (OpenQASM): tokens and characters deleted,
+ * duplicated, swapped or inserted.
  */
 
 /** Numbers and number-like tokens a mutated value may become. */
@@ -81,8 +83,54 @@ function mutateOnce(text: string, rng: () => number): string {
 
 /** `text` after 1 to `most` seeded edits. */
 export function mutateYaml(text: string, rng: () => number, most = 3): string {
+  return repeatEdits(text, rng, most, mutateOnce);
+}
+
+/** `text` after 1 to `most` applications of `edit`. */
+function repeatEdits(text: string, rng: () => number, most: number, edit: (t: string, rng: () => number) => string): string {
   let t = text;
   const edits = 1 + Math.floor(rng() * most);
-  for (let i = 0; i < edits; i++) t = mutateOnce(t, rng);
+  for (let i = 0; i < edits; i++) t = edit(t, rng);
   return t;
+}
+
+/** Tokens a mutated OpenQASM program may gain: keywords, gates, punctuation and special numbers. */
+const QASM_TOKENS = [
+  ';', ',', '(', ')', '[', ']', '{', '}', '->', '==', '+', '-', '*', '/', '**', '@', '"', '//', '/*', '\n', ' ', 'OPENQASM', '2.0', '3.0', '3',
+  'include', '"qelib1.inc"', '"stdgates.inc"', 'qreg', 'creg', 'qubit', 'bit', 'gate', 'measure', 'reset', 'barrier', 'if', 'delay', 'ctrl',
+  'inv', 'pow', 'negctrl', 'cx', 'cu1', 'u3', 'h', 'x', 'rz', 'swap', 'ccx', 'pi', 'tau', 'euler', '0', '1', '-1', '1e308', '1e-320', 'nan',
+  'inf', '99999999999999999999', 'dt', 'ns', 'us', 'ms', 's', 'constructor', '__proto__', '\u0000', '\t',
+];
+
+/** One edit of program text: a token or a few characters deleted, a token duplicated, two tokens swapped, or a token inserted. */
+function mutateTextOnce(text: string, rng: () => number): string {
+  const tokens = [...text.matchAll(/[A-Za-z_][A-Za-z0-9_.]*|\d+(\.\d+)?(e[+-]?\d+)?|\S/g)];
+  if (tokens.length === 0) return text + pick(rng, QASM_TOKENS);
+  const t = pick(rng, tokens);
+  const at = t.index!;
+  const end = at + t[0].length;
+  switch (Math.floor(rng() * 6)) {
+    case 0:
+      return text.slice(0, at) + text.slice(end);
+    case 1:
+      return text.slice(0, end) + ' ' + t[0] + text.slice(end);
+    case 2: {
+      const u = pick(rng, tokens);
+      if (u.index! <= end) return text;
+      return text.slice(0, at) + u[0] + text.slice(end, u.index!) + t[0] + text.slice(u.index! + u[0].length);
+    }
+    case 3:
+      return text.slice(0, at) + pick(rng, QASM_TOKENS) + text.slice(end);
+    case 4:
+      return text.slice(0, at) + pick(rng, QASM_TOKENS) + ' ' + text.slice(at);
+    default: {
+      const c = Math.floor(rng() * text.length);
+      return text.slice(0, c) + text.slice(c + 1 + Math.floor(rng() * 4));
+    }
+  }
+}
+
+/** `text` (a program, not YAML) after 1 to `most` seeded token or character edits. Pure function of (text, rng). */
+export function mutateText(text: string, rng: () => number, most = 3): string {
+  return repeatEdits(text, rng, most, mutateTextOnce);
 }
