@@ -1,4 +1,3 @@
-import { writeFileSync } from 'node:fs';
 import { MAX_DATA_FILE_BYTES, readBounded } from '../api/readInput.js';
 import { fileStart, InputError } from '../format/problem.js';
 import { baselineOf, check, DEFAULT_BASELINE_TOLERANCE, type Baseline, type CheckResult } from '../mitigation/check.js';
@@ -7,6 +6,7 @@ import { checkToJunit } from './junit.js';
 import { makeStyle, wantColor, type Style } from './style.js';
 import { EXIT, UsageError, VERSION, type CliIO } from './main.js';
 import { writeHtmlReport } from './htmlReport.js';
+import { writeOutputFile } from './outputFiles.js';
 import { checkPage } from '../html/index.js';
 import { targetOf } from './options.js';
 
@@ -16,8 +16,8 @@ export async function checkCommand(files: readonly string[], opts: Record<string
   const baseline = opts['baseline'] === undefined ? undefined : readBaseline(String(opts['baseline']));
   const { file: _f, ...load } = targetOf(files[0]!, opts);
   const result = check(files, { load, tolerance, ...(baseline !== undefined ? { baseline } : {}) });
-  if (opts['writeBaseline'] !== undefined) writeFileSync(String(opts['writeBaseline']), toJson(baselineOf(result)) + '\n');
-  if (opts['junit'] !== undefined) writeFileSync(String(opts['junit']), checkToJunit(result));
+  if (opts['writeBaseline'] !== undefined) writeOutputFile('--write-baseline', String(opts['writeBaseline']), toJson(baselineOf(result)) + '\n');
+  if (opts['junit'] !== undefined) writeOutputFile('--junit', String(opts['junit']), checkToJunit(result));
   await writeHtmlReport(opts, io, () => checkPage(result, VERSION));
   if (opts['json']) io.stdout.write(toJson(result) + '\n');
   else io.stdout.write(renderCheck(result, makeStyle(wantColor(process.stdout, opts['color'] !== false) && io.stdout === process.stdout)));

@@ -1,5 +1,5 @@
 import type { CliIO } from './main.js';
-import { writeOutputFile } from './writeOutput.js';
+import { writeOutputFile } from './outputFiles.js';
 
 /**
  * `--html FILE` of every command that draws a page: builds the page only when asked, writes

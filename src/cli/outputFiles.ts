@@ -1,4 +1,5 @@
-import { openSync, writeFileSync } from 'node:fs';
+import { openSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { basename, dirname, join } from 'node:path';
 import { UsageError } from './main.js';
 
 /**
@@ -26,6 +27,21 @@ export function openOutput(option: string, path: string, flags: 'w' | 'a'): numb
   try {
     return openSync(path, flags);
   } catch (e) {
+    throw new UsageError(`${option} ${path}: cannot write it: ${why(e)}`);
+  }
+}
+
+/**
+ * Writes `text` to `path` given with `option` whole or not at all: into a temporary file
+ * beside it, then renamed over it (reports and files other tools read back).
+ */
+export function writeOutputFile(option: string, path: string, text: string): void {
+  const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.tmp`);
+  try {
+    writeFileSync(tmp, text);
+    renameSync(tmp, path);
+  } catch (e) {
+    rmSync(tmp, { force: true });
     throw new UsageError(`${option} ${path}: cannot write it: ${why(e)}`);
   }
 }

@@ -41,6 +41,16 @@ describe('fray check', () => {
     expect(doc.testsuites['@_failures']).toBe('1');
   });
 
+  it('a --junit or --write-baseline path that cannot be written is an input error (exit 2), not an internal one', async () => {
+    const good = tempFile('good.yaml', SMALL('expect:\n  - state >= 0.9\n'));
+    const nowhere = tempFile('x', '') + '.missing/out';
+    for (const option of ['--junit', '--write-baseline']) {
+      const r = await fray('check', good, option, nowhere);
+      expect(r.code).toBe(2);
+      expect(r.err).toContain(`${option} ${nowhere}: cannot write it: its folder does not exist`);
+    }
+  });
+
   it('a baseline regression is caught even when the absolute expectation still holds', async () => {
     const base = tempFile('base.json', '');
     const v1 = tempFile('c.yaml', SMALL('expect:\n  - state >= 0.9\n'));

@@ -95,7 +95,7 @@ describe('fray run --html', () => {
     const missing = join(dir, 'no-such-folder', 'r.html');
     const r = await fray('run', 'circuits/ghz5.yaml', '--html', missing);
     expect(r.code).toBe(2);
-    expect(r.err).toBe(`fray: --html ${missing}: cannot write the file: its folder does not exist\n`);
+    expect(r.err).toBe(`fray: --html ${missing}: cannot write it: its folder does not exist\n`);
     expect(existsSync(missing)).toBe(false);
     const asFolder = await fray('run', 'circuits/ghz5.yaml', '--html', dir);
     expect(asFolder.code).toBe(2);

@@ -165,7 +165,7 @@ describe('--html on the study commands', () => {
     for (const args of runs) {
       const r = await fray(...args, '--html', nowhere);
       expect(r.code, args[0]).toBe(2);
-      expect(r.err).toContain(`--html ${nowhere}: cannot write the file: its folder does not exist`);
+      expect(r.err).toContain(`--html ${nowhere}: cannot write it: its folder does not exist`);
       expect(r.err).not.toMatch(/\n\s+at /);
     }
   });
