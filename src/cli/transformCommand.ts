@@ -1,5 +1,6 @@
-import { writeFileSync } from 'node:fs';
+import { convertToYaml } from '../api/convert.js';
 import { loadCircuit } from '../api/loadCircuit.js';
+import { isQasmPath } from '../format/qasm/index.js';
 import { readInputFile } from '../api/readInput.js';
 import { fileStart, ProblemList } from '../format/problem.js';
 import { formatDuration, parseDuration } from '../format/duration.js';
@@ -8,6 +9,7 @@ import { insertDecoupling, DECOUPLING_SEQUENCES, type DecouplingSequence } from 
 import { foldCircuit, MAX_FOLD_SCALE } from '../transforms/fold.js';
 import { UsageError, type CliIO } from './main.js';
 import { targetOf } from './options.js';
+import { writeOutputFile } from './outputFiles.js';
 
 /** `fray transform FILE`: decouple and/or fold the circuit and write it as a readable circuit file (to --out or standard output). */
 export async function transformCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
@@ -44,14 +46,19 @@ export async function transformCommand(file: string, opts: Record<string, unknow
     circuit = r.circuit;
     header.push(`unitary folding to scale ${r.scale} (G -> G (G^dagger G)^k; folds per gate application in order: ${r.folds.join(' ')})`);
   }
-  const read = new ProblemList();
-  const original = readInputFile(file, fileStart(file), 'circuit file', read);
-  read.throwIfErrors();
+  // an OpenQASM program is not YAML: its steps go into the circuit file `fray convert` writes
+  let original: string | undefined;
+  if (isQasmPath(file)) original = convertToYaml(file).text;
+  else {
+    const read = new ProblemList();
+    original = readInputFile(file, fileStart(file), 'circuit file', read);
+    read.throwIfErrors();
+  }
   const text = writeTransformedCircuit(original!, circuit, header);
   if (opts['out'] === undefined) {
     io.stdout.write(text);
     return;
   }
-  writeFileSync(String(opts['out']), text);
+  writeOutputFile('--out', String(opts['out']), text);
   io.stdout.write(header.map((h) => `${h}\n`).join('') + `written to ${String(opts['out'])}\n`);
 }

@@ -12,6 +12,24 @@ const SAME_RUN = 1e-12;
 
 
 describe('fray transform', () => {
+  it('transforms an OpenQASM program into a circuit file that runs exactly as the transform run directly, and exports back to OpenQASM', async () => {
+    const program = 'circuits/qasm/ghz-wait.qasm';
+    const device = 'circuits/devices/ring4-qasm.yaml';
+    const out = tempFile('ghz-wait-dd.yaml', '');
+    const r = await fray('transform', program, '--device', device, '--dd', 'xy4', '--out', out);
+    expect(r.code, r.err).toBe(0);
+    expect(readFileSync(out, 'utf8')).toMatch(/^# transformed by fray from circuits\/qasm\/ghz-wait\.qasm$/m);
+    const loaded = loadCircuit(program, { device });
+    const direct = insertDecoupling(loaded.circuit, loaded.profile, { sequence: 'xy4', minIdle: 0 }).circuit;
+    const a = simulateLoaded({ ...loaded, circuit: direct });
+    const b = simulateLoaded(loadCircuit(out, { device }));
+    expect(b.schedule.duration).toBe(a.schedule.duration);
+    expect(maxDiff(a.rho.data, b.rho.data)).toBeLessThan(SAME_RUN);
+    const back = await fray('export', out, '--qasm', '3');
+    expect(back.code, back.err).toBe(0);
+    expect(back.out).toMatch(/^OPENQASM 3/m);
+  });
+
   it('writes a circuit file that runs exactly as the transform run directly, with a header saying what was inserted', async () => {
     const out = tempFile('dd.yaml', '');
     const r = await fray('transform', DEMO, '--dd', 'xy4', '--min-idle', '200ns', '--fold', '2', '--out', out);
