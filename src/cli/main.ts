@@ -14,6 +14,7 @@ import { parseWholeNumber } from './wholeNumber.js';
 import { MAX_SHOTS } from '../results/sampling.js';
 import { addFormatCommands } from './formatCommands.js';
 import { isQasmPath, loadQasmToolkit } from '../format/qasm/index.js';
+import { settleOptionalValues } from './optionalValues.js';
 import { addTargetOptions, collect, collectLayout, parseLayout, parseNoiseScale, parsePositiveInt } from './options.js';
 
 /** Exit statuses of the fray command: success, internal error, input error, a failed `--require`. */
@@ -38,7 +39,7 @@ export async function main(argv: readonly string[], io: CliIO = { stdout: proces
   try {
     // the OpenQASM parser toolkit loads only for commands given a .qasm file (see src/format/qasm/toolkit.ts)
     if (argv.some(isQasmPath)) await loadQasmToolkit();
-    await program.parseAsync([...argv], { from: 'user' });
+    await program.parseAsync(settleOptionalValues(argv), { from: 'user' });
     return status;
   } catch (e) {
     return reportFailure(e, io);
