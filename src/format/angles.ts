@@ -2,6 +2,7 @@ import { evaluateReal } from '../circuit/expression.js';
 import type { ProblemList } from './problem.js';
 import { offsetInto } from './read.js';
 import { describe, type YNode } from './yamlTree.js';
+import { PLAIN_NUMBER_RE } from './numberSyntax.js';
 
 /** Literal numbers at least this large in magnitude as angles (radians) get a warning: a full turn, 2π. */
 export const LITERAL_ANGLE_WARN_ABOVE = 2 * Math.PI;
@@ -32,7 +33,7 @@ export function readAngle(
     problems.error(offsetInto(node, r.error.offset), 'bad-angle', `${what}: ${r.error.message}`);
     return undefined;
   }
-  if (/^\s*[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?\s*$/i.test(node.value)) warnIfDegreesMeant(node, r.value, what, problems);
+  if (PLAIN_NUMBER_RE.test(node.value)) warnIfDegreesMeant(node, r.value, what, problems);
   return r.value;
 }
 

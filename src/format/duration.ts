@@ -3,6 +3,7 @@
  * inside fray. Units: ns, us (also µs, μs), ms, s. A bare number is refused, because
  * a profile that says `duration: 35` is ambiguous.
  */
+import { NUMBER_SOURCE, PLAIN_NUMBER_RE } from './numberSyntax.js';
 
 /** Nanoseconds per unit. */
 export const DURATION_UNITS: Readonly<Record<string, number>> = {
@@ -22,14 +23,14 @@ export const DURATION_UNITS: Readonly<Record<string, number>> = {
 export const MAX_DURATION_NS = 1e15;
 
 /** A duration as written: a number, optional spaces, a unit of DURATION_UNITS (the JSON Schemas use this pattern too). */
-export const DURATION_PATTERN = '^\\s*([+-]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][+-]?\\d+)?)\\s*(ns|us|µs|μs|ms|s)\\s*$';
+export const DURATION_PATTERN = `^\\s*(${NUMBER_SOURCE})\\s*(ns|us|µs|μs|ms|s)\\s*$`;
 const DURATION_RE = new RegExp(DURATION_PATTERN);
 
 /** Parses '35ns', '1.2us', '2 ms' into nanoseconds, or returns an error message. */
 export function parseDuration(text: string): { ns: number } | { error: string } {
   const m = DURATION_RE.exec(text);
   if (m === null) {
-    if (/^\s*[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?\s*$/i.test(text)) {
+    if (PLAIN_NUMBER_RE.test(text)) {
       return { error: `duration '${text}' has no unit; write it with ns, us (µs), ms or s, e.g. '${text.trim()}ns'` };
     }
     return { error: `'${text}' is not a duration; expected a number with a unit ns, us (µs), ms or s, e.g. 35ns or 1.2us` };

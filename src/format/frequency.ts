@@ -3,6 +3,7 @@
  * kHz, MHz, GHz. Either sign is allowed (a detuning or a ZZ strength may be negative). A bare
  * number is refused, because `detuning: 20` could mean hertz or kilohertz.
  */
+import { NUMBER_SOURCE, PLAIN_NUMBER_RE } from './numberSyntax.js';
 
 /** Hertz per unit. */
 export const FREQUENCY_UNITS: Readonly<Record<string, number>> = {
@@ -13,17 +14,19 @@ export const FREQUENCY_UNITS: Readonly<Record<string, number>> = {
 };
 
 /** A frequency as written: a signed number, optional spaces, a unit of FREQUENCY_UNITS (the JSON Schemas use this pattern too). */
-export const FREQUENCY_PATTERN = '^\\s*([+-]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][+-]?\\d+)?)\\s*(Hz|kHz|MHz|GHz)\\s*$';
+export const FREQUENCY_PATTERN = `^\\s*(${NUMBER_SOURCE})\\s*(Hz|kHz|MHz|GHz)\\s*$`;
 const FREQUENCY_RE = new RegExp(FREQUENCY_PATTERN);
+/** A number followed by some word: tells a wrongly cased unit from something else. */
+const NUMBER_THEN_WORD_RE = new RegExp(`^\\s*${NUMBER_SOURCE}\\s*([A-Za-z]+)\\s*$`);
 
 /** Parses '80kHz', '-1.5MHz', '20 Hz' into hertz, or returns an error message. */
 export function parseFrequency(text: string): { hz: number } | { error: string } {
   const m = FREQUENCY_RE.exec(text);
   if (m === null) {
-    if (/^\s*[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?\s*$/i.test(text)) {
+    if (PLAIN_NUMBER_RE.test(text)) {
       return { error: `frequency '${text}' has no unit; write it with Hz, kHz, MHz or GHz, e.g. '${text.trim()}kHz'` };
     }
-    const unit = /^\s*[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?\s*([A-Za-z]+)\s*$/.exec(text)?.[1];
+    const unit = NUMBER_THEN_WORD_RE.exec(text)?.[1];
     if (unit !== undefined && Object.keys(FREQUENCY_UNITS).some((u) => u.toLowerCase() === unit.toLowerCase())) {
       const right = Object.keys(FREQUENCY_UNITS).find((u) => u.toLowerCase() === unit.toLowerCase())!;
       return { error: `frequency '${text}': the unit is written '${right}' (units are case-sensitive: Hz, kHz, MHz, GHz)` };

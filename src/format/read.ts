@@ -4,6 +4,7 @@ import { DURATION_UNITS, parseDuration } from './duration.js';
 import { FREQUENCY_UNITS, parseFrequency } from './frequency.js';
 import type { ProblemList, SourcePosition } from './problem.js';
 import { describe, type YEntry, type YMap, type YNode, type YScalar } from './yamlTree.js';
+import { PLAIN_NUMBER_RE } from './numberSyntax.js';
 
 /**
  * Small typed readers over the located YAML tree. Each returns the value, or records a
@@ -66,9 +67,6 @@ export function readNumber(
 
 /** Parameter values an expression in a number's place may use (the circuit's params). */
 export type NumberEnv = Readonly<Record<string, number>>;
-
-/** A plain decimal number written as text (never evaluated as an expression). */
-const PLAIN_NUMBER_RE = /^\s*[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?\s*$/i;
 
 /**
  * Evaluates `text` (an expression of the circuit's params) when params are in scope and the

@@ -1,5 +1,6 @@
 import type { RunResult } from '../api/simulate.js';
 import { metricName, metricValue, parseMetric, type Metric } from './metrics.js';
+import { NUMBER_SOURCE } from '../format/numberSyntax.js';
 
 /**
  * The condition language of `--require`, `--target` (and of `expect:` in later work):
@@ -18,7 +19,7 @@ export interface Condition {
 /** The comparison operators of a condition. */
 export type ComparisonOp = '>=' | '<=' | '>' | '<';
 
-const CONDITION_RE = /^\s*([A-Za-z][A-Za-z:]*)\s*(>=|<=|>|<)\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*$/;
+const CONDITION_RE = new RegExp(`^\\s*([A-Za-z][A-Za-z:]*)\\s*(>=|<=|>|<)\\s*(${NUMBER_SOURCE})\\s*$`);
 
 /** Parses `METRIC OP NUMBER`; an error message says what is expected. */
 export function parseCondition(text: string): Condition | { error: string } {

@@ -1,4 +1,5 @@
 import { DURATION_UNITS } from '../format/duration.js';
+import { NUMBER_SOURCE } from '../format/numberSyntax.js';
 
 /**
  * The values of one varied key, `--vary KEY=RANGE`:
@@ -48,7 +49,7 @@ export interface Interval {
   readonly text: string;
 }
 
-const NUMBER_UNIT_RE = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*([A-Za-zµμ]*)\s*$/;
+const NUMBER_UNIT_RE = new RegExp(`^\\s*(${NUMBER_SOURCE})\\s*([A-Za-zµμ]*)\\s*$`);
 
 /** A number with an optional unit, in base units. */
 export function parseQuantity(text: string): { value: number; unit: string | null } | { error: string } {
