@@ -4,6 +4,7 @@
  * 2.0 or 3 program (`fray export`). Nothing is written here; the caller decides where.
  */
 import { basename } from 'node:path';
+import type { Circuit } from '../circuit/circuit.js';
 import { InputError, ProblemList, type Problem } from '../format/problem.js';
 import { writeQasm } from '../format/qasm/index.js';
 import { writeCircuitYaml } from '../format/writeCircuit.js';
@@ -18,12 +19,16 @@ export interface Converted {
 /** Reads an OpenQASM program and writes the equivalent YAML circuit, with a header naming the source. Throws InputError on bad input. */
 export function convertToYaml(path: string): Converted {
   const loaded = loadCircuit(path);
+  return { text: programAsYaml(path, loaded.circuit), warnings: loaded.warnings };
+}
+
+/** The YAML circuit file of a circuit read from the OpenQASM program at `path` (named after the file, with a header naming it). */
+export function programAsYaml(path: string, circuit: Circuit): string {
   const name = basename(path).replace(/\.[^.]*$/, '');
-  const text = writeCircuitYaml(loaded.circuit, {
+  return writeCircuitYaml(circuit, {
     name,
     header: [`converted by fray from ${path}`, "add noise per step with 'noise:', or name a device profile with 'device:' or --device"],
   });
-  return { text, warnings: loaded.warnings };
 }
 
 /** Reads a circuit file (and its profile) and writes it as an OpenQASM program of `version`. Throws InputError on bad input. */

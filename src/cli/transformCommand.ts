@@ -1,4 +1,4 @@
-import { convertToYaml } from '../api/convert.js';
+import { programAsYaml } from '../api/convert.js';
 import { loadCircuit } from '../api/loadCircuit.js';
 import { isQasmPath } from '../format/qasm/index.js';
 import { readInputFile } from '../api/readInput.js';
@@ -48,7 +48,7 @@ export async function transformCommand(file: string, opts: Record<string, unknow
   }
   // an OpenQASM program is not YAML: its steps go into the circuit file `fray convert` writes
   let original: string | undefined;
-  if (isQasmPath(file)) original = convertToYaml(file).text;
+  if (isQasmPath(file)) original = programAsYaml(file, loaded.circuit);
   else {
     const read = new ProblemList();
     original = readInputFile(file, fileStart(file), 'circuit file', read);
