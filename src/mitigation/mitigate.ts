@@ -12,7 +12,7 @@
 import { simulateLoaded, measuredQubits, type SimulateOptions } from '../api/simulate.js';
 import type { LoadedCircuit } from '../api/loadCircuit.js';
 import type { Circuit } from '../circuit/circuit.js';
-import { ProblemList, warningText } from '../format/problem.js';
+import { ProblemList, warningJson, warningText } from '../format/problem.js';
 import { foldCircuit, type FoldOrder } from '../transforms/fold.js';
 import { scaleNoise } from '../noise/scale.js';
 import type { NoiseProfile } from '../noise/profile.js';
@@ -167,7 +167,7 @@ export function mitigate(loaded: LoadedCircuit, options: MitigateOptions): Mitig
         problems.items.forEach((p, i) => (problems.items[i] = { ...p, message: p.message.replace(/^--noise-scale /, '--zne scale ') }));
         problems.throwIfErrors();
         for (const w of problems.warnings) {
-          const text = `${w.file}:${w.line}:${w.col}: ${w.message}`;
+          const text = warningText(warningJson(w));
           if (!warnings.includes(text)) warnings.push(text);
         }
         runs.push({ scale: c, figures: figuresOf(scaled.circuit, scaled.profile) });
