@@ -63,8 +63,8 @@ export interface SimulateOptions {
 }
 
 /**
- * What ran the noisy run: 'wasm' = WebAssembly SIMD kernels for the real-form passes (the
- * diagonal and general passes always run in JS), 'js' = JS kernels throughout, 'reference' =
+ * What ran the noisy run: 'wasm' = WebAssembly SIMD kernels for the real-form and diagonal passes
+ * (the general passes always run in JS), 'js' = JS kernels throughout, 'reference' =
  * the instruction-by-instruction reference engine; and how many threads shared each pass.
  */
 export interface EngineInfo {

@@ -13,7 +13,7 @@ import { applyGeneral } from './kernelGeneral.js';
 import { applyReal1, applyReal1Tp } from './kernelReal1.js';
 import { applyReal2, MIRROR_TILE } from './kernelReal2.js';
 import { partStart, trianglePartStart } from './partition.js';
-import { scratchAt, type WasmBinding } from './wasmKernels.js';
+import { DIAGONAL_WASM_MAX_BIN, packQubitList, scratchAt, type WasmBinding } from './wasmKernels.js';
 import { checkViewLength } from './sharedView.js';
 
 /**
@@ -58,8 +58,8 @@ export function encodeCall(call: KernelCall, words: Int32Array, at: number): num
 /**
  * Executes the call encoded at words[at …] on the n-qubit ρ (`data`, 2·4^n numbers), for part
  * `part` of `parts` (./partition.ts). With `wasm` (this thread's instance over the WebAssembly
- * memory holding `data`, and `arena` loaded there too) the real-form calls run the WebAssembly
- * kernels, the others the JS ones; both families give the same bits. Throws ViewLengthError
+ * memory holding `data`, and `arena` loaded there too) the real-form and diagonal calls run the
+ * WebAssembly kernels, the general ones the JS kernel; both families give the same bits. Throws ViewLengthError
  * when `data` is not the size of an n-qubit ρ, so a thread whose view lost its length
  * (./sharedView.ts) fails loudly instead of leaving its rows unwritten.
  */
@@ -81,6 +81,17 @@ export function executeCall(data: Float64Array, n: number, words: Int32Array, at
       k(wasm.rhoAt, n, words[at + 5]!, mat, scratchAt(part), partStart(rows, part, parts), partStart(rows, part + 1, parts));
     }
     return;
+  }
+  if (wasm !== undefined && id === KERNEL_IDS.diagonal) {
+    const kB = words[at + 4]!;
+    if (kA <= DIAGONAL_WASM_MAX_BIN && kB <= DIAGONAL_WASM_MAX_BIN) {
+      const D = 1 << n;
+      const qa = packQubitList(words, at + 5, kA);
+      const qb = packQubitList(words, at + 5 + kA, kB);
+      const tabB = wasm.arenaAt + 8 * words[at + 2]!;
+      wasm.kernels.diagonal(wasm.rhoAt, n, wasm.arenaAt + 8 * off, kA, qa, tabB, kB, qb, scratchAt(part), partStart(D, part, parts), partStart(D, part + 1, parts));
+      return;
+    }
   }
   switch (id) {
     case KERNEL_IDS.real1:

@@ -50,7 +50,22 @@ export interface WasmKernelExports {
   real1(rho: number, n: number, q: number, mat: number, scratch: number, start: number, end: number): void;
   real1tp(rho: number, n: number, q: number, mat: number, scratch: number, start: number, end: number): void;
   real2(rho: number, n: number, q1: number, q2: number, mat: number, scratch: number, tile: number, tileStart: number, tileEnd: number): void;
+  /** Tables at tabA, tabB over kA, kB ≤ DIAGONAL_WASM_MAX_BIN qubits, the qubits packed by packQubitList; kB = 0: no table B. */
+  diagonal(rho: number, n: number, tabA: number, kA: number, qa: number, tabB: number, kB: number, qb: number, scratch: number, start: number, end: number): void;
   stream(ptr: number, bytes: number): void;
+}
+
+/** Most qubits of one table the WebAssembly diagonal kernel takes (4 bits per qubit in one i32: 7; the plan's bins have at most 7). */
+export const DIAGONAL_WASM_MAX_BIN = 7;
+
+/**
+ * The qubits list[from … from + k) (each < 16) packed 4 bits each into one integer, the first in
+ * the lowest bits: how the WebAssembly diagonal kernel takes the qubits of a table.
+ */
+export function packQubitList(list: ArrayLike<number>, from: number, k: number): number {
+  let v = 0;
+  for (let t = 0; t < k; t++) v |= list[from + t]! << (4 * t);
+  return v;
 }
 
 /** Which kernel family runs the real-form passes: the WebAssembly SIMD kernels or the JS ones. */
@@ -194,6 +209,7 @@ export function warmWasmKernels(): void {
   kernels.real1(rhoAt, 3, 1, arenaAt, scratchAt(0), 0, 4);
   kernels.real1tp(rhoAt, 3, 1, arenaAt, scratchAt(0), 0, 4);
   kernels.real2(rhoAt, 3, 0, 2, arenaAt, scratchAt(0), 1, 0, 2);
+  kernels.diagonal(rhoAt, 3, arenaAt, 2, packQubitList([0, 2], 0, 2), arenaAt, 1, 1, scratchAt(0), 0, 8);
 }
 
 const registers = new WeakMap<Float64Array, WasmRegister>();

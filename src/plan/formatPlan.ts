@@ -24,9 +24,9 @@ export function describeSources(sources: readonly number[], origins: readonly Or
   return [...counts].map(([name, c]) => (c > 1 ? `${name} ×${c}` : name)).join(', ');
 }
 
-/** Which kernels run the passes of a plan, for people: the real-form passes on `family`, the rest in JS. */
+/** Which kernels run the passes of a plan, for people: the real-form and diagonal passes on `family`, the general ones in JS. */
 export function describeKernelFamily(family: KernelFamily): string {
-  return family === 'wasm' ? 'WebAssembly SIMD for real1, real1tp and real2; JS for diagonal and general' : 'JS for every pass';
+  return family === 'wasm' ? 'WebAssembly SIMD for real1, real1tp, real2 and diagonal; JS for general' : 'JS for every pass';
 }
 
 /**

@@ -344,6 +344,126 @@ function real2() {
   )`;
 }
 
+/** Byte offsets in a part's scratch of the diagonal kernel's packed-index tables (2^DIAG_LO_BITS i32 entries each). */
+const DIAG_LO_A = 0;
+const DIAG_LO_B = 512;
+const DIAG_HI_A = 1024;
+const DIAG_HI_B = 1536;
+/** Column bits of the diagonal kernel's inner loop (at most; the rest is its outer loop): 2^7 = 128 entries per table. */
+const DIAG_LO_BITS = 7;
+/** Elements per step of the diagonal kernel's inner loop (1 or 2; 2 measured no faster on the bench machine). */
+const DIAG_UNROLL = 1;
+
+/**
+ * Fills the scratch table at byte offset `dst` with 16·pack(i << sh) for i < count: the bits of the
+ * register index on the k qubits packed in `q` (4 bits per qubit, first listed = most significant,
+ * as src/engine/kernelDiagonal.ts packs them), as a byte offset of a complex table entry.
+ */
+function packTable(dst, k, q, sh, count) {
+  return `(local.set $i (i32.const 0))
+    (block $fill_done_${dst}
+      (loop $fill_${dst}
+        (br_if $fill_done_${dst} (i32.ge_u (local.get $i) ${count}))
+        (local.set $v (i32.const 0))
+        (local.set $t (i32.const 0))
+        (block $bits_done_${dst}
+          (loop $bits_${dst}
+            (br_if $bits_done_${dst} (i32.ge_u (local.get $t) (local.get ${k})))
+            (local.set $v (i32.or (i32.shl (local.get $v) (i32.const 1))
+              (i32.and (i32.const 1) (i32.shr_u (i32.shl (local.get $i) ${sh})
+                (i32.sub (local.get $nm1) (i32.and (i32.shr_u (local.get ${q}) (i32.shl (local.get $t) (i32.const 2))) (i32.const 15)))))))
+            (local.set $t (i32.add (local.get $t) (i32.const 1)))
+            (br $bits_${dst})))
+        (i32.store offset=${dst} (i32.add (local.get $scratch) (i32.shl (local.get $i) (i32.const 2))) (i32.shl (local.get $v) (i32.const 4)))
+        (local.set $i (i32.add (local.get $i) (i32.const 1)))
+        (br $fill_${dst})))`;
+}
+
+/**
+ * Exact complex product u·v as the JS kernels write it, (u_r·v_r − u_i·v_i, u_r·v_i + u_i·v_r):
+ * splat(u_r)·v + (splat(u_i)·swap(v) with lane 0 negated); x + (−y) is IEEE 754's x − y, and
+ * negation is exact. `ur`, `ui` are the splatted parts, `v`, `vs` = v and swap(v).
+ */
+function complexProduct(ur, ui, v, vs) {
+  return `(f64x2.add (f64x2.mul ${ur} ${v}) (v128.xor (f64x2.mul ${ui} ${vs}) (local.get $signRe)))`;
+}
+
+/**
+ * The diagonal kernel (src/engine/kernelDiagonal.ts): ρ[r][c] ← ρ[r][c] · (T_A[…] · T_B[…]) (or
+ * ρ[r][c] · T_A[…] when kB = 0) for rows [start, end), the same two complex products per element
+ * in the same order as the JS kernel. The packed index of a row or column is the sum of the packed
+ * indices of its low DIAG_LO_BITS bits and of the rest (disjoint bits), looked up in four small
+ * tables built in the scratch at the call's start.
+ */
+function diagonal() {
+  /** The element `u` steps further: ρ entry at p + 16u, lo-table entry at pl + 4u. */
+  const element = (two, u) => {
+    const x = '(local.get $p)';
+    const ta = `(i32.add (local.get $ha) (i32.load offset=${DIAG_LO_A + 4 * u} (local.get $pl)))`;
+    const tb = `(i32.add (local.get $hb) (i32.load offset=${DIAG_LO_B + 4 * u} (local.get $pl)))`;
+    const f = two
+      ? `(local.set $ea ${ta})
+                (local.set $b (v128.load ${tb}))
+                (local.set $f ${complexProduct('(v128.load64_splat (local.get $ea))', '(v128.load64_splat offset=8 (local.get $ea))', '(local.get $b)', swap('(local.get $b)'))})`
+      : `(local.set $f (v128.load ${ta}))`;
+    return `${f}
+                (v128.store offset=${16 * u} ${x} ${complexProduct(`(v128.load64_splat offset=${16 * u} ${x})`, `(v128.load64_splat offset=${16 * u + 8} ${x})`, '(local.get $f)', swap('(local.get $f)'))})`;
+  };
+  const inner = (two) => `(local.set $pl (local.get $scratch))
+              (loop $cols${two ? '2' : '1'}
+                ${Array.from({ length: DIAG_UNROLL }, (_, u) => element(two, u)).join('\n                ')}
+                (local.set $p (i32.add (local.get $p) (i32.const ${16 * DIAG_UNROLL})))
+                (local.set $pl (i32.add (local.get $pl) (i32.const ${4 * DIAG_UNROLL})))
+                (br_if $cols${two ? '2' : '1'} (i32.lt_u (local.get $pl) (local.get $plEnd))))`;
+  const rows = (two) => `(local.set $r (local.get $start))
+      (block $rows_done${two ? '2' : '1'}
+        (loop $rows${two ? '2' : '1'}
+          (br_if $rows_done${two ? '2' : '1'} (i32.ge_u (local.get $r) (local.get $end)))
+          ;; row r's table rows: (packed row index) · d · 16 bytes = (16 · packed index) << k
+          (local.set $ra (i32.add (local.get $tabA) (i32.shl (i32.add
+            (i32.load offset=${DIAG_LO_A} (i32.add (local.get $scratch) (i32.shl (i32.and (local.get $r) (local.get $loMask)) (i32.const 2))))
+            (i32.load offset=${DIAG_HI_A} (i32.add (local.get $scratch) (i32.shl (i32.shr_u (local.get $r) (local.get $L)) (i32.const 2)))))
+            (local.get $kA))))
+          ${two ? `(local.set $rb (i32.add (local.get $tabB) (i32.shl (i32.add
+            (i32.load offset=${DIAG_LO_B} (i32.add (local.get $scratch) (i32.shl (i32.and (local.get $r) (local.get $loMask)) (i32.const 2))))
+            (i32.load offset=${DIAG_HI_B} (i32.add (local.get $scratch) (i32.shl (i32.shr_u (local.get $r) (local.get $L)) (i32.const 2)))))
+            (local.get $kB))))` : ''}
+          (local.set $p (i32.add (local.get $rho) (i32.mul (local.get $r) (local.get $rowBytes))))
+          (local.set $ph (local.get $scratch))
+          (loop $his${two ? '2' : '1'}
+            (local.set $ha (i32.add (local.get $ra) (i32.load offset=${DIAG_HI_A} (local.get $ph))))
+            ${two ? `(local.set $hb (i32.add (local.get $rb) (i32.load offset=${DIAG_HI_B} (local.get $ph))))` : ''}
+            ${inner(two)}
+            (local.set $ph (i32.add (local.get $ph) (i32.const 4)))
+            (br_if $his${two ? '2' : '1'} (i32.lt_u (local.get $ph) (local.get $phEnd))))
+          (local.set $r (i32.add (local.get $r) (i32.const 1)))
+          (br $rows${two ? '2' : '1'})))`;
+  const i32s = ['i', 'v', 't', 'nm1', 'L', 'loMask', 'rowBytes', 'r', 'ra', 'rb', 'ha', 'hb', 'ea', 'p', 'pl', 'plEnd', 'ph', 'phEnd'];
+  return `
+  ;; rho[r][c] *= T_A[pack_A(r), pack_A(c)] * T_B[pack_B(r), pack_B(c)] (T_B only when kB > 0) for rows [start, end);
+  ;; tables at tabA, tabB (complex f64, row-major), over the kA (kB) qubits packed 4 bits each in qa (qb), kA, kB <= 7
+  (func (export "diagonal") (param $rho i32) (param $n i32) (param $tabA i32) (param $kA i32) (param $qa i32) (param $tabB i32) (param $kB i32) (param $qb i32) (param $scratch i32) (param $start i32) (param $end i32)
+    ${i32s.map((v) => `(local $${v} i32)`).join(' ')} (local $b v128) (local $f v128) (local $signRe v128)
+    (local.set $signRe (v128.const i64x2 0x8000000000000000 0))
+    (local.set $nm1 (i32.sub (local.get $n) (i32.const 1)))
+    (local.set $L (select (local.get $n) (i32.const ${DIAG_LO_BITS}) (i32.lt_u (local.get $n) (i32.const ${DIAG_LO_BITS}))))
+    (local.set $loMask (i32.sub (i32.shl (i32.const 1) (local.get $L)) (i32.const 1)))
+    (local.set $rowBytes (i32.shl (i32.const 16) (local.get $n)))
+    ;; the inner loop runs over the 2^L low column bits, the outer one over the 2^(n − L) high ones
+    (local.set $plEnd (i32.add (local.get $scratch) (i32.shl (i32.const 1) (i32.add (local.get $L) (i32.const 2)))))
+    (local.set $phEnd (i32.add (local.get $scratch) (i32.shl (i32.const 1) (i32.add (i32.sub (local.get $n) (local.get $L)) (i32.const 2)))))
+    ${packTable(DIAG_LO_A, '$kA', '$qa', '(i32.const 0)', '(i32.shl (i32.const 1) (local.get $L))')}
+    ${packTable(DIAG_HI_A, '$kA', '$qa', '(local.get $L)', '(i32.shl (i32.const 1) (i32.sub (local.get $n) (local.get $L)))')}
+    ${packTable(DIAG_LO_B, '$kB', '$qb', '(i32.const 0)', '(i32.shl (i32.const 1) (local.get $L))')}
+    ${packTable(DIAG_HI_B, '$kB', '$qb', '(local.get $L)', '(i32.shl (i32.const 1) (i32.sub (local.get $n) (local.get $L)))')}
+    (if (i32.eqz (local.get $kB))
+      (then
+      ${rows(false)})
+      (else
+      ${rows(true)}))
+  )`;
+}
+
 /** The memory floor: every double of [ptr, ptr + bytes) read, scaled and written once (bytes a multiple of 64). */
 function stream() {
   const lines = [];
@@ -374,6 +494,7 @@ export function wasmKernelsText() {
 ${real1(false)}
 ${real1(true)}
 ${real2()}
+${diagonal()}
 ${stream()}
 )
 `;

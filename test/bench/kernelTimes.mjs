@@ -142,11 +142,9 @@ export function kernelTimes(n, reps, pool) {
     timed(`1-qubit fused channel, ${tag} (real1tp: trace-preserving, as planned)`, 0);
     timed(`1-qubit fused channel, ${tag} (real1: general Hermiticity-preserving form)`, 4);
     timed(`2-qubit fused channel, ${tag} (real2, mirrored)`, 1);
-    if (family === 'js') {
-      timed('diagonal, 1 qubit (JS)', 3);
-      timed(`diagonal, all ${n} qubits in one pass (JS)`, -1);
-      timed('2-qubit general complex (JS; the --no-fuse kernel)', 2, Math.max(3, reps >> 2));
-    }
+    timed(`diagonal, 1 qubit (${tag})`, 3);
+    timed(`diagonal, all ${n} qubits in one pass (${tag})`, -1);
+    if (family === 'js') timed('2-qubit general complex (JS; the --no-fuse kernel)', 2, Math.max(3, reps >> 2));
     if (pool) pool.detach();
   }
   for (const r of rows) {

@@ -59,7 +59,7 @@ describe('fray run engine options', () => {
     expect(wasm1).toEqual(wasm2);
     const plan = await fray('run', file, '--plan', '--kernels', 'js');
     expect(plan.out).toContain('kernels: JS for every pass');
-    expect((await fray('run', file, '--plan')).out).toContain('kernels: WebAssembly SIMD for real1, real1tp and real2');
+    expect((await fray('run', file, '--plan')).out).toContain('kernels: WebAssembly SIMD for real1, real1tp, real2 and diagonal; JS for general');
   });
 
   it('--threads 0 is a usage error (exit 2)', async () => {

@@ -13,7 +13,8 @@ import { applyCompiled, createSharedDensityMatrix, kernelFamilyOf } from '../../
 import { closeSharedThreadPool, sharedThreadPool } from '../../src/engine/threadPool.js';
 import { kernelFamilyFor, WASM_MAX_QUBITS, WASM_MIN_QUBITS, wasmKernelModule } from '../../src/engine/wasmKernels.js';
 import { krausToSuperoperator } from '../../src/linalg/superoperator.js';
-import type { CMatrix } from '../../src/linalg/cmatrix.js';
+import { diag, type CMatrix } from '../../src/linalg/cmatrix.js';
+import { diagonalTable, DIAGONAL_BIN_MAX_QUBITS } from '../../src/plan/diagonalBatch.js';
 import { denseChannel, rhoDiff, rhoToMath } from './dense.js';
 import { mulberry32, randomDensityMatrix, randomKraus, sameBits } from './helpers.js';
 
@@ -81,6 +82,59 @@ function pairs(n: number): Array<[number, number]> {
   }
   if (n >= 9) return [[0, n - 1], [n - 1, 0], [n - 2, n - 1]];
   out.push([0, 1], [1, 0], [n - 2, n - 1], [n - 1, n - 2], [0, n - 1], [n - 1, 0], [2, n - 3]);
+  return out;
+}
+
+/** A diagonal channel on `qubits`: a random diagonal unitary (phases e^{iφ}) or, on one qubit, phase damping. */
+interface DiagonalOp {
+  readonly qubits: number[];
+  readonly kraus: CMatrix[];
+}
+
+/**
+ * Random diagonal channels filling bins A and B (disjoint; B may be empty): on each bin a
+ * phase-damping channel per qubit (Kraus diag(1, √(1−λ)), diag(0, √λ), N&C eq. 8.127–8.128) and
+ * diagonal unitaries on random pairs and single qubits of the bin.
+ */
+function diagonalOps(rng: () => number, a: readonly number[], b: readonly number[]): DiagonalOp[] {
+  const ops: DiagonalOp[] = [];
+  const phases = (k: number): CMatrix => diag(Array.from({ length: 1 << k }, () => [Math.cos(6 * rng()), Math.sin(6 * rng())] as [number, number]));
+  for (const bin of [a, b]) {
+    for (const q of bin) {
+      const lambda = 0.05 + 0.5 * rng();
+      ops.push({ qubits: [q], kraus: [diag([1, Math.sqrt(1 - lambda)]), diag([0, Math.sqrt(lambda)])] });
+    }
+    for (let i = 0; i + 1 < bin.length; i += 2) ops.push({ qubits: [bin[i + 1]!, bin[i]!], kraus: [phases(2)] });
+    if (bin.length > 0) ops.push({ qubits: [bin[bin.length - 1]!], kraus: [phases(1)] });
+  }
+  return ops;
+}
+
+/** A one-call plan applying the diagonal channels `ops` as the product tables over bins a and b. */
+function diagonalPlan(n: number, a: readonly number[], b: readonly number[], ops: readonly DiagonalOp[]): CompiledPlan {
+  const members = ops.map((o) => ({ qubits: o.qubits, superop: krausToSuperoperator(o.kraus) }));
+  const plan = new CompiledPlanBuilder(n);
+  const off = plan.addNumbers(diagonalTable(members, a));
+  const offB = plan.addNumbers(diagonalTable(members, b));
+  plan.addCall({ kernel: 'diagonal', qubits: a, qubitsB: b, off, offB });
+  return plan.build();
+}
+
+/**
+ * Bin pairs on n qubits: one bin of every qubit (up to DIAGONAL_BIN_MAX_QUBITS), one bin of a
+ * single middle qubit, and two bins: interleaved qubits, and the low and high halves (listed
+ * high first, so the packed order is not the register order).
+ */
+function diagonalBinPairs(rng: () => number, n: number): Array<[number[], number[]]> {
+  const all = Array.from({ length: n }, (_, q) => q);
+  const out: Array<[number[], number[]]> = [[all.slice(0, DIAGONAL_BIN_MAX_QUBITS), []], [[n >> 1], []]];
+  if (n >= 2) {
+    const shuffled = [...all].sort(() => rng() - 0.5);
+    const kA = Math.min(DIAGONAL_BIN_MAX_QUBITS, Math.ceil(n / 2));
+    out.push([shuffled.slice(0, kA).sort((x, y) => x - y), shuffled.slice(kA, kA + DIAGONAL_BIN_MAX_QUBITS).sort((x, y) => x - y)]);
+    const half = n >> 1;
+    out.push([all.slice(half).slice(0, DIAGONAL_BIN_MAX_QUBITS).reverse(), all.slice(0, half).reverse()]);
+  }
   return out;
 }
 
@@ -162,6 +216,37 @@ describe('WebAssembly kernels', () => {
     }
   });
 
+  // Source for the physics: the reference kernels applying each diagonal channel by its Kraus
+  // operators (src/engine/kernels.ts, checked against mathjs in kernels.test.ts). Bit-for-bit
+  // equality with the JS diagonal kernel holds because both do the same two complex products per
+  // element in the same order.
+  it.each([1, 2, 3, 4, 5, 6, 7, 8, 9, 10])('diagonal batches on %i qubits, one and two bins: bit-for-bit the JS kernel, 1e-14 the reference', (n) => {
+    const rng = mulberry32(12_500 + n);
+    for (const [index, [a, b]] of diagonalBinPairs(rng, n).entries()) {
+      const rho0 = randomHermitian(rng, n);
+      const ops = diagonalOps(rng, a, b);
+      const { wasm, js } = bothFamilies(n, rho0, diagonalPlan(n, a, b, ops));
+      expect(sameBits(wasm.data, js.data)).toBe(true);
+      if (!checkReference(n, index)) continue;
+      const ref: DensityMatrix = { n, dim: 1 << n, data: Float64Array.from(rho0) };
+      for (const o of ops) referenceKernels.applyKraus(ref, o.qubits, o.kraus);
+      expect(maxDiff(wasm.data, ref.data)).toBeLessThan(WASM_AGREEMENT);
+    }
+  });
+
+  // Source: independent dense computation with mathjs (full 2^n × 2^n operators, ./dense.ts).
+  it.each([1, 2, 3, 4])('diagonal batches agree with the dense mathjs route to 1e-14 on %i qubits', (n) => {
+    const rng = mulberry32(12_600 + n);
+    for (const [a, b] of diagonalBinPairs(rng, n)) {
+      const rho = randomDensityMatrix(rng, n);
+      const ops = diagonalOps(rng, a, b);
+      let expected = rhoToMath(rho);
+      for (const o of ops) expected = denseChannel(n, o.qubits, o.kraus, expected);
+      const { wasm } = bothFamilies(n, rho.data, diagonalPlan(n, a, b, ops));
+      expect(rhoDiff(wasm, expected)).toBeLessThan(WASM_AGREEMENT);
+    }
+  });
+
   it('give bit-for-bit the same ρ on 1 and 2 threads, equal to the JS kernels on 2 threads', () => {
     const pool = sharedThreadPool(2, false);
     const n = 7;
@@ -172,6 +257,13 @@ describe('WebAssembly kernels', () => {
       const qubits = k === 1 ? [(3 * i) % n] : [i % n, (i + 2 + (i % 3)) % n];
       const real = realFormOf(krausToSuperoperator(randomKraus(rng, 1 << k, 2)), k)!;
       b.addCall({ kernel: k === 2 ? 'real2' : i % 4 === 0 ? 'real1' : 'real1tp', qubits, off: b.addNumbers(real) });
+      if (i % 5 === 4) {
+        // a diagonal batch: two bins every other time
+        const [binA, binB] = i % 10 === 4 ? [[1, 3, 4], [0, 6]] : [[2, 5], []];
+        const members = diagonalOps(rng, binA, binB).map((o) => ({ qubits: o.qubits, superop: krausToSuperoperator(o.kraus) }));
+        const off = b.addNumbers(diagonalTable(members, binA));
+        b.addCall({ kernel: 'diagonal', qubits: binA, qubitsB: binB, off, offB: b.addNumbers(diagonalTable(members, binB)) });
+      }
     }
     const plan = b.build();
     const one = createSharedDensityMatrix(n, 'wasm');
