@@ -17,15 +17,23 @@ export interface CompiledPlan {
 /** Collects arena numbers and calls, then packs them into shared memory. */
 export class CompiledPlanBuilder {
   private readonly chunks: Float64Array[] = [];
+  private readonly offsets = new Map<Float64Array, number>();
   private size = 0;
   private readonly calls: KernelCall[] = [];
 
   constructor(readonly n: number) {}
 
-  /** Appends numbers to the arena and returns their offset. */
+  /**
+   * Appends numbers to the arena and returns their offset; the same array (by identity, e.g. a
+   * memoised diagonal table shared by several calls) is stored once. Arrays must not change
+   * between here and build().
+   */
   addNumbers(values: Float64Array): number {
+    const known = this.offsets.get(values);
+    if (known !== undefined) return known;
     const off = this.size;
     this.chunks.push(values);
+    this.offsets.set(values, off);
     this.size += values.length;
     return off;
   }

@@ -11,7 +11,7 @@
  */
 import type { Instruction } from '../engine/instruction.js';
 import { isTracePreservingRealForm, realFormOf } from '../engine/realForm.js';
-import { DIAGONAL_BIN_MAX_QUBITS, diagonalBins, diagonalTable, isDiagonalSuperoperator, type DiagonalMember } from './diagonalBatch.js';
+import { DIAGONAL_BIN_MAX_QUBITS, diagonalBins, isDiagonalSuperoperator, memoisedDiagonalTable, type DiagonalMember } from './diagonalBatch.js';
 import { fuseInstructions, type FusedGroup } from './fuseInstructions.js';
 import { instructionQubits, instructionSuperoperator } from './instructionSuperoperator.js';
 import type { Plan, PlanStep } from './plan.js';
@@ -37,8 +37,8 @@ function groupStep(g: FusedGroup): PlanStep {
   return { kernel: 'general', qubits: g.qubits, sources: g.sources, numbers: g.superop.data };
 }
 
-/** The diagonal call for a batch of diagonal members. */
-function diagonalStep(members: readonly DiagonalMember[], sources: readonly number[]): PlanStep {
+/** The diagonal call for a batch of diagonal members (tables from `tableOf`, diagonalTable or a memo of it). */
+function diagonalStep(members: readonly DiagonalMember[], sources: readonly number[], tableOf: (members: readonly DiagonalMember[], bin: readonly number[]) => Float64Array): PlanStep {
   const bins = diagonalBins(members);
   if (bins === undefined) throw new Error('buildPlan: diagonal batch does not fit its bins');
   const [a, b] = bins;
@@ -46,10 +46,10 @@ function diagonalStep(members: readonly DiagonalMember[], sources: readonly numb
     kernel: 'diagonal',
     qubits: [...a, ...b],
     sources: [...sources].sort((x, y) => x - y),
-    numbers: diagonalTable(members, a),
+    numbers: tableOf(members, a),
     binA: a,
     binB: b,
-    tableB: diagonalTable(members, b),
+    tableB: tableOf(members, b),
   };
 }
 
@@ -67,9 +67,10 @@ export function buildPlan(n: number, instructions: readonly Instruction[], optio
   const steps: (PlanStep | undefined)[] = [];
   let batch: { members: DiagonalMember[]; sources: number[]; at: number } | undefined;
   const touched = new Set<number>();
+  const tableOf = memoisedDiagonalTable();
   const closeBatch = (): void => {
     if (batch === undefined) return;
-    steps[batch.at] = diagonalStep(batch.members, batch.sources);
+    steps[batch.at] = diagonalStep(batch.members, batch.sources, tableOf);
     batch = undefined;
   };
   for (const g of fuseInstructions(n, instructions, { keepDiagonal: options.keepDiagonal === true })) {

@@ -7,6 +7,7 @@
  * "bins" of qubits A and B; every member must lie inside one bin.
  */
 import type { CMatrix } from '../linalg/cmatrix.js';
+import { numbersKey } from './numbersKey.js';
 
 /** Largest number of qubits of one bin (a table of 4^7 complex entries is 256 KiB). */
 export const DIAGONAL_BIN_MAX_QUBITS = 7;
@@ -64,43 +65,125 @@ export function diagonalBins(members: readonly DiagonalMember[]): [number[], num
   return [a, b];
 }
 
+/** The diagonal S[i][i] of a member's superoperator (complex, interleaved; i < 4^k). */
+function memberDiagonal(m: DiagonalMember): Float64Array {
+  const dm2 = 1 << (2 * m.qubits.length);
+  const S = m.superop.data;
+  const out = new Float64Array(2 * dm2);
+  for (let i = 0; i < dm2; i++) {
+    out[2 * i] = S[2 * (i * dm2 + i)]!;
+    out[2 * i + 1] = S[2 * (i * dm2 + i) + 1]!;
+  }
+  return out;
+}
+
+/** For every index x < 2^v over the bin positions `over` (first = most significant): the bits of x at the positions `pos`, packed (first = most significant). */
+function packedAt(pos: readonly number[], over: readonly number[]): Int32Array {
+  const v = over.length;
+  const shifts = pos.map((p) => v - 1 - over.indexOf(p));
+  const out = new Int32Array(1 << v);
+  for (let x = 0; x < 1 << v; x++) {
+    let y = 0;
+    for (const sh of shifts) y = (y << 1) | ((x >> sh) & 1);
+    out[x] = y;
+  }
+  return out;
+}
+
 /**
  * The product table over `bin` (ascending qubits, k of them, d = 2^k) of the members lying in
  * it: T[row·d + col] (complex, interleaved) = Π_members S_m[(a_m + b_m·d_m), same], where a_m, b_m
- * are the bits of row and col on the member's qubits (first listed = most significant).
+ * are the bits of row and col on the member's qubits (first listed = most significant); every
+ * entry starts at exactly 1 and is multiplied by the members' factors in member order.
+ *
+ * The partial product after the first j members depends only on the bits of the qubits U_j
+ * those members act on, so it is kept as a table over U_j, widened when a member brings new
+ * qubits (4^|U_j| entries instead of 4^k per member); each entry still goes through the very
+ * same multiplications in the same order, so the table has the same bits as the entry-by-entry
+ * product.
  */
 export function diagonalTable(members: readonly DiagonalMember[], bin: readonly number[]): Float64Array {
-  const k = bin.length;
-  const d = 1 << k;
-  const t = new Float64Array(2 * d * d);
-  for (let i = 0; i < d * d; i++) t[2 * i] = 1;
+  let covered: number[] = [];
+  let partial: Float64Array = new Float64Array([1, 0]);
   for (const m of members) {
-    if (!m.qubits.every((q) => bin.includes(q))) continue;
     const pos = m.qubits.map((q) => bin.indexOf(q));
-    const km = pos.length;
-    const dm = 1 << km;
-    const dm2 = dm * dm;
-    const S = m.superop.data;
-    // the member's bits of every bin index, computed once (not once per table entry)
-    const local = new Int32Array(d);
-    for (let x = 0; x < d; x++) {
-      let v = 0;
-      for (let j = 0; j < km; j++) v = (v << 1) | ((x >> (k - 1 - pos[j]!)) & 1);
-      local[x] = v;
-    }
-    for (let row = 0; row < d; row++) {
-      const am = local[row]!;
-      for (let col = 0; col < d; col++) {
-        const idx = am + local[col]! * dm;
-        const fr = S[2 * (idx * dm2 + idx)]!;
-        const fi = S[2 * (idx * dm2 + idx) + 1]!;
-        const e = 2 * (row * d + col);
-        const xr = t[e]!;
-        const xi = t[e + 1]!;
-        t[e] = xr * fr - xi * fi;
-        t[e + 1] = xr * fi + xi * fr;
-      }
+    if (pos.some((p) => p < 0)) continue;
+    const fresh = pos.filter((p) => !covered.includes(p));
+    const widened = fresh.length > 0 ? [...covered, ...fresh] : covered;
+    partial = multiplyWidened(partial, covered.length, widened.length, memberDiagonal(m), packedAt(pos, widened));
+    covered = widened;
+  }
+  return inBinOrder(partial, covered, bin.length);
+}
+
+/**
+ * out[r·2^v + c] = P[(r ≫ (v−u))·2^u + (c ≫ (v−u))] · f[a_r + a_c·d_m] for r, c < 2^v: the partial
+ * product P over u qubits, widened by v − u new least significant qubits, times a member's
+ * factor (f its diagonal, a its packed bits of every index), as xr·fr − xi·fi, xr·fi + xi·fr.
+ */
+function multiplyWidened(P: Float64Array, u: number, v: number, f: Float64Array, a: Int32Array): Float64Array {
+  const dv = 1 << v;
+  const du = 1 << u;
+  const shift = v - u;
+  const dm = Math.sqrt(f.length / 2);
+  const out = v === u ? P : new Float64Array(2 * dv * dv);
+  for (let r = 0; r < dv; r++) {
+    const srcRow = (r >> shift) * du;
+    const ar = a[r]!;
+    for (let c = 0; c < dv; c++) {
+      const s = 2 * (srcRow + (c >> shift));
+      const i = 2 * (ar + a[c]! * dm);
+      const xr = P[s]!;
+      const xi = P[s + 1]!;
+      const fr = f[i]!;
+      const fi = f[i + 1]!;
+      const e = 2 * (r * dv + c);
+      out[e] = xr * fr - xi * fi;
+      out[e + 1] = xr * fi + xi * fr;
     }
   }
-  return t;
+  return out;
+}
+
+/** The table over the k bin positions in bin order from the partial product P over `covered` (bits of uncovered positions do not matter). */
+function inBinOrder(P: Float64Array, covered: readonly number[], k: number): Float64Array {
+  if (covered.length === k && covered.every((p, j) => p === j)) return P;
+  const d = 1 << k;
+  const du = 1 << covered.length;
+  const all = Array.from({ length: k }, (_, p) => p);
+  const packed = packedAt(covered, all);
+  const out = new Float64Array(2 * d * d);
+  for (let r = 0; r < d; r++) {
+    for (let c = 0; c < d; c++) {
+      const s = 2 * (packed[r]! * du + packed[c]!);
+      out[2 * (r * d + c)] = P[s]!;
+      out[2 * (r * d + c) + 1] = P[s + 1]!;
+    }
+  }
+  return out;
+}
+
+/** Exact key of what diagonalTable(members, bin) reads: the bin, and each member in it with its qubits and diagonal. */
+function diagonalTableKey(members: readonly DiagonalMember[], bin: readonly number[]): string {
+  const parts = [bin.join(',')];
+  for (const m of members) if (m.qubits.every((q) => bin.includes(q))) parts.push(`${m.qubits.join(',')}:${numbersKey(memberDiagonal(m))}`);
+  return parts.join(';');
+}
+
+/**
+ * diagonalTable memoised by what it reads, bit for bit: the same batch recurring in every layer
+ * of a circuit is multiplied out once, and its calls share one table (never modified; the
+ * compiled plan stores it once, src/engine/compiledPlan.ts).
+ */
+export function memoisedDiagonalTable(): (members: readonly DiagonalMember[], bin: readonly number[]) => Float64Array {
+  const memo = new Map<string, Float64Array>();
+  return (members, bin) => {
+    const key = diagonalTableKey(members, bin);
+    let t = memo.get(key);
+    if (t === undefined) {
+      t = diagonalTable(members, bin);
+      memo.set(key, t);
+    }
+    return t;
+  };
 }

@@ -23,8 +23,8 @@
 import type { Instruction } from '../engine/instruction.js';
 import type { CMatrix } from '../linalg/cmatrix.js';
 import { isDiagonalSuperoperator } from './diagonalBatch.js';
-import { composeEmbedded, composeEmbeddedBefore } from './embedSuperoperator.js';
-import { instructionQubits, instructionSuperoperator } from './instructionSuperoperator.js';
+import { CompositionMemo } from './compositionMemo.js';
+import { instructionQubits, memoisedInstructionSuperoperator } from './instructionSuperoperator.js';
 
 /** One fused group: a superoperator on `qubits` (first = most significant) and the instruction indices it contains, ascending. */
 export interface FusedGroup {
@@ -62,13 +62,16 @@ export function fuseInstructions(n: number, instructions: readonly Instruction[]
   const keep = options.keepDiagonal === true;
   const last: (OpenGroup | undefined)[] = new Array<OpenGroup | undefined>(n).fill(undefined);
   const groups: OpenGroup[] = [];
+  // identical instructions share one superoperator, and identical compositions one result
+  const superoperatorOf = memoisedInstructionSuperoperator();
+  const compose = new CompositionMemo();
   instructions.forEach((ins, i) => {
     const Q = instructionQubits(ins);
-    const S = instructionSuperoperator(ins);
+    const S = superoperatorOf(ins);
     const diagonal = keep && isDiagonalSuperoperator(S);
     const g0 = last[Q[0]!];
     if (g0 !== undefined && Q.every((q) => last[q] === g0) && !(keep && g0.diagonal && !diagonal && g0.qubits.length > Q.length)) {
-      g0.superop = composeEmbedded(S, positionsIn(Q, g0.qubits), g0.qubits.length, g0.superop);
+      g0.superop = compose.after(S, positionsIn(Q, g0.qubits), g0.qubits.length, g0.superop);
       g0.sources.push(i);
       g0.diagonal = g0.diagonal && diagonal;
       return;
@@ -86,7 +89,7 @@ export function fuseInstructions(n: number, instructions: readonly Instruction[]
       if (p.qubits.every((x) => Q.includes(x) && last[x] === p)) {
         groupDiagonal = groupDiagonal && p.diagonal;
         // P acts before the instruction and on other qubits than any other absorbed group: S ∘ (⊗ S_P)
-        superop = composeEmbeddedBefore(superop, p.superop, positionsIn(p.qubits, Q), k);
+        superop = compose.before(superop, p.superop, positionsIn(p.qubits, Q), k);
         sources.push(...p.sources);
         p.alive = false;
       }

@@ -6,6 +6,7 @@
  */
 import { RESET_KRAUS, type Instruction } from '../engine/instruction.js';
 import type { CMatrix } from '../linalg/cmatrix.js';
+import { numbersKey } from './numbersKey.js';
 
 
 /** The qubits an instruction acts on, first listed = most significant factor. */
@@ -56,4 +57,35 @@ export function instructionSuperoperator(ins: Instruction): CMatrix {
     case 'reset':
       return superoperatorOfKraus(RESET_KRAUS);
   }
+}
+
+/** Exact key of the numbers instructionSuperoperator reads from `ins` (its Kraus operators or unitary). */
+function superoperatorKey(ins: Instruction): string {
+  switch (ins.op) {
+    case 'unitary':
+      return `u${ins.matrix.rows}:${numbersKey(ins.matrix.data)}`;
+    case 'channel':
+      return `c${ins.kraus.map((k) => `${k.rows}:${numbersKey(k.data)}`).join(';')}`;
+    case 'reset':
+      return 'r';
+  }
+}
+
+/**
+ * instructionSuperoperator memoised by the instruction's numbers, bit for bit: an instruction
+ * repeated in every layer (a gate, its noise, a drift term of the same length) is converted once,
+ * and every application gets the same superoperator (the bits it would compute; callers never
+ * modify it).
+ */
+export function memoisedInstructionSuperoperator(): (ins: Instruction) => CMatrix {
+  const memo = new Map<string, CMatrix>();
+  return (ins) => {
+    const key = superoperatorKey(ins);
+    let s = memo.get(key);
+    if (s === undefined) {
+      s = instructionSuperoperator(ins);
+      memo.set(key, s);
+    }
+    return s;
+  };
 }
