@@ -39,6 +39,7 @@ const read = lap();
 const schedule = scheduleCircuit(loaded.circuit, loaded.profile);
 const program = buildProgram(loaded.circuit, loaded.profile, schedule, new ProblemList());
 const prog = lap();
+// as simulate: programs with drift keep their diagonal zz terms apart (keepDiagonal)
 const compiled = compilePlan(buildPlan(n, program.noisy, { keepDiagonal: hasDrift(loaded.profile) }));
 const plan = lap();
 const rho = createSharedDensityMatrix(n, family);
