@@ -55,6 +55,27 @@ export function encodeCall(call: KernelCall, words: Int32Array, at: number): num
   return i;
 }
 
+/** Index in `words` of the call encoded right after the one at `at`. */
+export function nextCallAt(words: Int32Array, at: number): number {
+  return at + 5 + words[at + 3]! + words[at + 4]!;
+}
+
+/**
+ * True when part p of `parts` of the call at `at` on n qubits reads and writes only the rows whose
+ * top log₂(parts) bits are p (parts a power of two): a diagonal call (its rows split evenly), or a
+ * real1 / real1tp call whose target is not among those top qubits (its rest rows split evenly, and
+ * a rest row and its partner share those bits). A run of such calls needs no synchronisation
+ * between them: each thread can go through the whole run on its rows. Every other call (real2
+ * writes mirror blocks in other rows, general splits otherwise) stands alone.
+ */
+export function rowLocalCall(words: Int32Array, at: number, n: number, parts: number): boolean {
+  const top = Math.log2(parts);
+  if (!Number.isInteger(top) || top > n - 1) return false;
+  const id = words[at]!;
+  if (id === KERNEL_IDS.diagonal) return true;
+  return (id === KERNEL_IDS.real1 || id === KERNEL_IDS.real1tp) && words[at + 5]! >= top;
+}
+
 /**
  * Executes the call encoded at words[at …] on the n-qubit ρ (`data`, 2·4^n numbers), for part
  * `part` of `parts` (./partition.ts). With `wasm` (this thread's instance over the WebAssembly
@@ -116,4 +137,9 @@ export function executeCall(data: Float64Array, n: number, words: Int32Array, at
     default:
       throw new RangeError(`executeCall: unknown kernel id ${id}`);
   }
+}
+
+/** Part `part` of `parts` of the `count` consecutive calls from words[at] (executeCall, one after the other). */
+export function runCalls(data: Float64Array, n: number, words: Int32Array, at: number, count: number, arena: Float64Array, part: number, parts: number, wasm?: WasmBinding): void {
+  for (let i = 0, call = at; i < count; i++, call = nextCallAt(words, call)) executeCall(data, n, words, call, arena, part, parts, wasm);
 }

@@ -4,7 +4,7 @@
  * over the threads of a pool when the register is large enough to pay for the hand-offs.
  */
 import type { CompiledPlan } from './compiledPlan.js';
-import { executeCall } from './kernelCall.js';
+import { executeCall, rowLocalCall } from './kernelCall.js';
 import type { DensityMatrix } from './layout.js';
 import { checkQubitCount } from './targets.js';
 import type { ThreadPool } from './threadPool.js';
@@ -57,7 +57,14 @@ export function applyCompiled(rho: DensityMatrix, plan: CompiledPlan, pool?: Thr
   if (wantThreads && pool.parts > 1) {
     pool.attach(rho.data, plan.arena, plan.words, reg?.handle());
     try {
-      for (const at of plan.starts) pool.run(n, at);
+      // runs of row-local calls go to the threads at once (one hand-off instead of one per call)
+      const { starts, words } = plan;
+      for (let i = 0; i < starts.length; ) {
+        let j = i + 1;
+        if (rowLocalCall(words, starts[i]!, n, pool.parts)) while (j < starts.length && rowLocalCall(words, starts[j]!, n, pool.parts)) j++;
+        pool.run(n, starts[i]!, j - i);
+        i = j;
+      }
     } finally {
       pool.detach();
     }

@@ -18,10 +18,12 @@ export const CTRL_AT = 5;
 export const CTRL_PARTS = 6;
 /** Set to 1 by a worker whose command threw. */
 export const CTRL_ERROR = 7;
+/** Number of consecutive calls of a CMD_RUN, starting at CTRL_AT (a chain of row-local calls, ./kernelCall.ts). */
+export const CTRL_COUNT = 8;
 /** Length of the control block in 32-bit slots. */
-export const CTRL_SLOTS = 8;
+export const CTRL_SLOTS = 9;
 
-/** Run the kernel call at CTRL_AT on the attached register. */
+/** Run the CTRL_COUNT kernel calls from CTRL_AT on the attached register. */
 export const CMD_RUN = 0;
 /** Take the register, arena and words posted on the worker's port (read synchronously). */
 export const CMD_ATTACH = 1;

@@ -9,7 +9,7 @@ import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { MessageChannel, Worker, type MessagePort } from 'node:worker_threads';
-import { executeCall } from './kernelCall.js';
+import { runCalls } from './kernelCall.js';
 import { shareView } from './sharedView.js';
 import {
   CMD_ATTACH,
@@ -18,6 +18,7 @@ import {
   CMD_RUN,
   CTRL_AT,
   CTRL_CMD,
+  CTRL_COUNT,
   CTRL_DONE,
   CTRL_ERROR,
   CTRL_GEN,
@@ -127,18 +128,24 @@ export class ThreadPool {
     this.attached = { data, arena, words, wasm: wasm !== undefined ? bindWasm(wasm) : undefined };
   }
 
-  /** Runs the attached call at words[at] on the n-qubit attached register, split over every thread. */
-  run(n: number, at: number): void {
+  /**
+   * Runs the attached call at words[at] on the n-qubit attached register, split over every
+   * thread; with `count` > 1 the `count` consecutive calls from there, each thread going through
+   * all of them on its own rows before the threads meet (only for runs of row-local calls,
+   * rowLocalCall in ./kernelCall.ts: no thread reads rows another one writes).
+   */
+  run(n: number, at: number, count = 1): void {
     const a = this.attached;
     if (a === undefined) throw new Error('ThreadPool.run: nothing attached');
     const ctrl = this.ctrl;
     ctrl[CTRL_N] = n;
     ctrl[CTRL_AT] = at;
+    ctrl[CTRL_COUNT] = count;
     ctrl[CTRL_PARTS] = this.parts;
     this.start(CMD_RUN);
     let mainError: unknown;
     try {
-      executeCall(a.data, n, a.words, at, a.arena, 0, this.parts, a.wasm);
+      runCalls(a.data, n, a.words, at, count, a.arena, 0, this.parts, a.wasm);
     } catch (e) {
       mainError = e;
     }

@@ -4,13 +4,14 @@
  * shared ρ — on the WebAssembly kernels when the attached register lives in WebAssembly memory.
  */
 import { receiveMessageOnPort, workerData, type MessagePort } from 'node:worker_threads';
-import { executeCall } from './kernelCall.js';
+import { runCalls } from './kernelCall.js';
 import {
   CMD_ATTACH,
   CMD_DETACH,
   CMD_QUIT,
   CTRL_AT,
   CTRL_CMD,
+  CTRL_COUNT,
   CTRL_DONE,
   CTRL_ERROR,
   CTRL_GEN,
@@ -73,7 +74,7 @@ function workerLoop(): void {
         current = undefined;
         wasm = undefined;
       } else if (current !== undefined) {
-        executeCall(current.data, ctrl[CTRL_N]!, current.words, ctrl[CTRL_AT]!, current.arena, part, ctrl[CTRL_PARTS]!, wasm);
+        runCalls(current.data, ctrl[CTRL_N]!, current.words, ctrl[CTRL_AT]!, ctrl[CTRL_COUNT]!, current.arena, part, ctrl[CTRL_PARTS]!, wasm);
       }
     } catch {
       Atomics.store(ctrl, CTRL_ERROR, 1);

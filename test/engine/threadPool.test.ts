@@ -4,7 +4,9 @@ import { realFormOf } from '../../src/engine/realForm.js';
 import { applyCompiled, createSharedDensityMatrix } from '../../src/engine/runCompiled.js';
 import { krausToSuperoperator } from '../../src/linalg/superoperator.js';
 import { closeSharedThreadPool, sharedThreadPool, ThreadPool } from '../../src/engine/threadPool.js';
-import { executeCall } from '../../src/engine/kernelCall.js';
+import { executeCall, rowLocalCall } from '../../src/engine/kernelCall.js';
+import { diagonalTable } from '../../src/plan/diagonalBatch.js';
+import { diag } from '../../src/linalg/cmatrix.js';
 import { openFloat64View, openInt32View, shareView, ViewLengthError } from '../../src/engine/sharedView.js';
 import { mulberry32, randomKraus, sameBits } from './helpers.js';
 
@@ -41,6 +43,68 @@ describe('ThreadPool', () => {
       expect(sameBits(one.data, two.data)).toBe(true);
     }
     expect(sharedThreadPool(2)).toBe(pool);
+  });
+
+  /**
+   * A plan with long runs of row-local calls (real1tp on every qubit, diagonal batches), broken
+   * by a real1tp on qubit 0 and by real2 calls, as the plan of a circuit with drift has them.
+   */
+  function chainedCompiled(n: number, seed: number) {
+    const rng = mulberry32(seed);
+    const b = new CompiledPlanBuilder(n);
+    const phases = () => diag(Array.from({ length: 4 }, () => [Math.cos(6 * rng()), Math.sin(6 * rng())] as [number, number]));
+    for (let layer = 0; layer < 3; layer++) {
+      for (let q = 0; q < n; q++) {
+        const real = realFormOf(krausToSuperoperator(randomKraus(rng, 2, 2)), 1)!;
+        b.addCall({ kernel: q % 3 === 0 ? 'real1' : 'real1tp', qubits: [(q + layer) % n], off: b.addNumbers(real) });
+      }
+      const members = [{ qubits: [1, 2], superop: krausToSuperoperator([phases()]) }, { qubits: [0, n - 1], superop: krausToSuperoperator([phases()]) }];
+      const off = b.addNumbers(diagonalTable(members, [1, 2]));
+      b.addCall({ kernel: 'diagonal', qubits: [1, 2], qubitsB: [0, n - 1], off, offB: b.addNumbers(diagonalTable(members, [0, n - 1])) });
+      const two = realFormOf(krausToSuperoperator(randomKraus(rng, 4, 2)), 2)!;
+      b.addCall({ kernel: 'real2', qubits: [layer % n, (layer + 2) % n], off: b.addNumbers(two) });
+    }
+    return b.build();
+  }
+
+  it('runs of row-local calls go to the threads at once with bit-for-bit the result of 1 thread (2 and 4 threads, both kernel families)', () => {
+    for (const threads of [2, 4]) {
+      const pool = new ThreadPool(threads, false);
+      try {
+        for (const [n, seed] of [
+          [4, 11],
+          [7, 12],
+        ] as const) {
+          const plan = chainedCompiled(n, seed);
+          for (const family of ['wasm', 'js'] as const) {
+            const one = createSharedDensityMatrix(n, family);
+            const many = createSharedDensityMatrix(n, family);
+            applyCompiled(one, plan);
+            applyCompiled(many, plan, pool, 1);
+            expect(pool.parts).toBe(threads);
+            expect(sameBits(one.data, many.data)).toBe(true);
+          }
+        }
+      } finally {
+        pool.close();
+      }
+    }
+  });
+
+  it('rowLocalCall: diagonal calls and 1-qubit calls below the top log2(parts) qubits, for power-of-two parts only', () => {
+    const b = new CompiledPlanBuilder(5);
+    const off = b.addNumbers(new Float64Array(32));
+    b.addCall({ kernel: 'real1tp', qubits: [0], off });
+    b.addCall({ kernel: 'real1', qubits: [1], off });
+    b.addCall({ kernel: 'diagonal', qubits: [0], qubitsB: [], off });
+    b.addCall({ kernel: 'real2', qubits: [3, 4], off });
+    const { words, starts } = b.build();
+    const local = (i: number, parts: number) => rowLocalCall(words, starts[i]!, 5, parts);
+    expect([0, 1, 2, 3].map((i) => local(i, 2))).toEqual([false, true, true, false]);
+    expect([0, 1, 2, 3].map((i) => local(i, 4))).toEqual([false, false, true, false]);
+    expect([0, 1, 2, 3].map((i) => local(i, 3))).toEqual([false, false, false, false]);
+    // more parts than a 1-qubit pass has rest rows
+    expect(local(2, 32)).toBe(false);
   });
 
   it('a pool of 1 thread starts no worker, and a closed pool runs single-threaded', () => {
