@@ -1,14 +1,11 @@
 import { Command, CommanderError, Option } from 'commander';
 import { InputError } from '../format/problem.js';
-import { runCommand } from './runCommand.js';
-import { channelCommand, type ChannelCommandOptions } from './channelCommand.js';
-import { schemaCommand } from './schemaCommand.js';
+import type { ChannelCommandOptions } from './channelCommand.js';
 import { makeStyle, wantColor } from './style.js';
-import { mitigateCommand, parseInstances, parseScales } from './mitigateCommand.js';
-import { transformCommand } from './transformCommand.js';
+import { parseInstances, parseScales } from './mitigateOptions.js';
 import { FIT_KINDS } from '../mitigation/extrapolate.js';
 import { READOUT_METHODS } from '../mitigation/readoutCorrection.js';
-import { DECOUPLING_SEQUENCES } from '../transforms/decouple.js';
+import { DECOUPLING_SEQUENCES } from '../transforms/sequences.js';
 import { renderProblems } from './problems.js';
 import { parseWholeNumber } from './wholeNumber.js';
 import { MAX_SHOTS } from '../results/sampling.js';
@@ -145,6 +142,8 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
         'variation distance compare ideal probabilities with measured ones (readout error included).',
     )
     .action(async (file: string, opts: Record<string, unknown>) => {
+      // every command loads its own modules when it runs (one bundle: scripts/bundle.mjs makes each import() lazy)
+      const { runCommand } = await import('./runCommand.js');
       await runCommand(file, opts, io);
     });
   run.exitOverride();
@@ -169,6 +168,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
         'V = Σ K_k ⊗ |k⟩ with the environment last. Diamond distances range over [0, 2].',
     )
     .action(async (file: string, name: string | undefined, opts: ChannelCommandOptions) => {
+      const { channelCommand } = await import('./channelCommand.js');
       await channelCommand(file, name, opts, io);
     });
   channel.exitOverride();
@@ -333,6 +333,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
         'See docs/mitigation.md for the fits and the readout correction.',
     ), 'multiply every noise strength by C ≥ 0 before mitigating (the device as run; folding scales on top)')
     .action(async (file: string, opts: Record<string, unknown>) => {
+      const { mitigateCommand } = await import('./mitigateCommand.js');
       await mitigateCommand(file, opts, io);
     });
   mitigateCmd.exitOverride();
@@ -388,6 +389,7 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
       ),
     'multiply every noise strength by C ≥ 0 when scheduling (it changes no durations)',
   ).action(async (file: string, opts: Record<string, unknown>) => {
+    const { transformCommand } = await import('./transformCommand.js');
     await transformCommand(file, opts, io);
   });
   transformCmd.exitOverride();
@@ -398,7 +400,10 @@ function buildProgram(io: CliIO, exitWith: (code: number) => void): Command {
     .description('print the JSON Schema of a file kind, for editors that complete keys and flag typos as you type')
     .argument('<kind>', 'circuit, profile (a device file) or channels (a channel file of fray channel)')
     .addHelpText('after', '\nExample:\n  fray schema circuit > circuit.schema.json\n\nThe same schemas ship as docs/schemas/*.schema.json; docs/editors.md shows how to use them.')
-    .action((kind: string) => schemaCommand(kind, io))
+    .action(async (kind: string) => {
+      const { schemaCommand } = await import('./schemaCommand.js');
+      schemaCommand(kind, io);
+    })
     .exitOverride();
   return program;
 }
