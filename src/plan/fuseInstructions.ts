@@ -24,7 +24,7 @@ import type { Instruction } from '../engine/instruction.js';
 import type { CMatrix } from '../linalg/cmatrix.js';
 import { isDiagonalSuperoperator } from './diagonalBatch.js';
 import { composeEmbedded, composeEmbeddedBefore } from './embedSuperoperator.js';
-import { instructionQubits, instructionSuperoperator } from './instructionSuperoperator.js';
+import { instructionQubits, superoperatorsByPayload } from './instructionSuperoperator.js';
 
 /** One fused group: a superoperator on `qubits` (first = most significant) and the instruction indices it contains, ascending. */
 export interface FusedGroup {
@@ -60,11 +60,12 @@ function positionsIn(sub: readonly number[], group: readonly number[]): number[]
 /** Fuses `instructions` on n qubits into groups by the rule above, in application order. */
 export function fuseInstructions(n: number, instructions: readonly Instruction[], options: FuseOptions = {}): FusedGroup[] {
   const keep = options.keepDiagonal === true;
+  const superoperatorOf = superoperatorsByPayload();
   const last: (OpenGroup | undefined)[] = new Array<OpenGroup | undefined>(n).fill(undefined);
   const groups: OpenGroup[] = [];
   instructions.forEach((ins, i) => {
     const Q = instructionQubits(ins);
-    const S = instructionSuperoperator(ins);
+    const S = superoperatorOf(ins);
     const diagonal = keep && isDiagonalSuperoperator(S);
     const g0 = last[Q[0]!];
     if (g0 !== undefined && Q.every((q) => last[q] === g0) && !(keep && g0.diagonal && !diagonal && g0.qubits.length > Q.length)) {

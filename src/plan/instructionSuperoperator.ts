@@ -57,3 +57,21 @@ export function instructionSuperoperator(ins: Instruction): CMatrix {
       return superoperatorOfKraus(RESET_KRAUS);
   }
 }
+
+/**
+ * instructionSuperoperator with one computation per distinct payload: instructions that carry
+ * the same matrix or Kraus list object (every application of one noise entry, src/program/program.ts)
+ * share one superoperator, the same numbers each would get alone. The result is read, never written.
+ */
+export function superoperatorsByPayload(): (ins: Instruction) => CMatrix {
+  const known = new Map<object, CMatrix>();
+  return (ins) => {
+    const payload = ins.op === 'unitary' ? ins.matrix : ins.op === 'channel' ? ins.kraus : RESET_KRAUS;
+    let s = known.get(payload);
+    if (s === undefined) {
+      s = instructionSuperoperator(ins);
+      known.set(payload, s);
+    }
+    return s;
+  };
+}
