@@ -174,7 +174,7 @@ describe('fusion structure', () => {
   });
 });
 
-describe('one superoperator per distinct payload (src/plan/instructionSuperoperator.ts superoperatorsByPayload)', () => {
+describe('one superoperator per distinct payload and per distinct group history (src/plan/instructionSuperoperator.ts, src/plan/fuseInstructions.ts)', () => {
   it('a plan whose instructions share matrix and Kraus objects has the same numbers, bit for bit, as one where every instruction has its own copies', () => {
     const copy = (m: CMatrix): CMatrix => ({ rows: m.rows, cols: m.cols, data: Float64Array.from(m.data) });
     const rng = mulberry32(4711);
@@ -192,5 +192,26 @@ describe('one superoperator per distinct payload (src/plan/instructionSuperopera
       });
       expect(maxDiff(runCompiled(compilePlan(a)).data, runCompiled(compilePlan(b)).data)).toBe(0);
     }
+  });
+
+  it('groups of one history (brickwork layers of one rotation, one cx and shared noise) share superoperators, with the numbers of a plan without sharing', () => {
+    const copy = (m: CMatrix): CMatrix => ({ rows: m.rows, cols: m.cols, data: Float64Array.from(m.data) });
+    const n = 6;
+    const noise = phaseDampingKraus(0.02);
+    const shared: Instruction[] = [];
+    for (let layer = 0; layer < 6; layer++) {
+      const turn = rz(0.3 + 0.1 * (layer % 2));
+      for (let q = 0; q < n; q++) shared.push({ op: 'unitary', qubits: [q], matrix: turn }, { op: 'channel', qubits: [q], kraus: noise });
+      for (let q = layer % 2; q + 1 < n; q += 2) shared.push({ op: 'unitary', qubits: [q, q + 1], matrix: CNOT }, { op: 'channel', qubits: [q + 1], kraus: noise });
+    }
+    const own: Instruction[] = shared.map((ins) => (ins.op === 'unitary' ? { ...ins, matrix: copy(ins.matrix) } : ins.op === 'channel' ? { ...ins, kraus: ins.kraus.map(copy) } : ins));
+    const a = buildPlan(n, shared);
+    const b = buildPlan(n, own);
+    // the three cx groups of a layer are one history: fewer distinct number arrays than steps
+    expect(new Set(a.steps.map((s) => s.numbers)).size).toBeLessThan(a.steps.length);
+    expect(new Set(b.steps.map((s) => s.numbers)).size).toBe(b.steps.length);
+    expect(a.steps.map((s) => [s.kernel, s.qubits, s.sources])).toEqual(b.steps.map((s) => [s.kernel, s.qubits, s.sources]));
+    a.steps.forEach((s, i) => expect(Array.from(s.numbers)).toEqual(Array.from(b.steps[i]!.numbers)));
+    expect(maxDiff(runCompiled(compilePlan(a)).data, runCompiled(compilePlan(b)).data)).toBe(0);
   });
 });
