@@ -5,8 +5,10 @@
 //    not an ES module, from a code cache (vm.Script cachedData); bin/loadCli.js loads it.
 //  - dist/bundle/cli.cache: V8's code cache of cli.cjs after one small run (the functions a run
 //    needs come compiled). Measured on the 2-vCPU bench machine: a trivial run's CPU time
-//    0.29 s → 0.24 s (node -e 0: 0.15 s). V8 rejects a cache from another Node or V8 build, and
-//    bin/fray.js then compiles as usual.
+//    0.29 s → 0.24 s (node -e 0: 0.15 s); a cache made right after loading, without the run, is
+//    half the size and ~9% slower overall. V8 rejects a cache from another Node or V8 build, or
+//    when Node runs with other V8 flags, and bin/fray.js then compiles as usual.
+//    docs/engine.md "Start-up" has what else a start costs and what was cut.
 //  - dist/bundle/threadWorker.js: the worker script (an ES module, started by path).
 // Both bundles sit two directories below the package root, as dist/engine/ does, so
 // wasm/kernels.wasm resolves the same way from either (src/engine/wasmKernels.ts), and the
