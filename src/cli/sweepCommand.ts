@@ -11,6 +11,7 @@ import {
   parseVary,
   planSweep,
   readSweepFile,
+  completeBytes,
   rowText,
   runSweep,
   type Metric,
@@ -76,7 +77,7 @@ export async function sweepCommand(file: string, opts: Record<string, unknown>, 
         throw new InputError([{ ...fileStart(out), severity: 'error', code: 'other-sweep', message: `--resume: ${out} holds another sweep (fingerprint ${c.header.fingerprint}${c.header.shard ? `, shard ${c.header.shard}` : ''}); this one is ${header.fingerprint}${header.shard ? `, shard ${header.shard}` : ''}` }]);
       }
       skip = new Set(c.rows.map((r) => r.index));
-      if (c.completeBytes < text.length) truncateSync(out, c.completeBytes);
+      if (c.completeLength < text.length) truncateSync(out, completeBytes(text, c));
       if (format === 'csv' && c.columns !== undefined && c.columns.length === 0) writeOutput('--out', out, headerText(header, columns));
       fd = openOutput('--out', out, 'a');
     } else {

@@ -25,7 +25,7 @@ export { parseVary, parseInterval, parseQuantity, spaced, valueText, UNIT_FAMILI
 export type { Varied, Interval, UnitFamily } from './ranges.js';
 export { planSweep, pointAt, selectedIndices, runSweep, runPoint, checkSweep, describePoint } from './sweep.js';
 export type { SweepCheck, SweepSpec, SweepPlan, SweepPoint, SweepRow, SweepSelection, SweepRunOptions } from './sweep.js';
-export { formatOf, headerOf, headerText, csvColumns, rowText, readSweepFile, mergeSweepFiles } from './sweepFiles.js';
+export { formatOf, headerOf, headerText, csvColumns, rowText, readSweepFile, completeBytes, mergeSweepFiles } from './sweepFiles.js';
 export type { SweepFormat, SweepHeader, SweepFileContent } from './sweepFiles.js';
 export { findThreshold, THRESHOLD_SCAN_POINTS } from './threshold.js';
 export type { ThresholdOptions, ThresholdResult, ThresholdSample } from './threshold.js';

@@ -81,8 +81,13 @@ export interface SweepFileContent {
   readonly header: SweepHeader;
   readonly columns?: readonly string[];
   readonly rows: readonly { readonly index: number; readonly text: string }[];
-  /** Bytes of complete lines (a trailing partial line, from a killed run, is not counted). */
-  readonly completeBytes: number;
+  /** Length of the complete lines, in UTF-16 code units of the text (a trailing partial line, from a killed run, is not counted); `completeBytes` gives it in bytes of the file. */
+  readonly completeLength: number;
+}
+
+/** Bytes (UTF-8, as written to the file) of the complete lines of a sweep file's text: where a resumed run cuts the file. */
+export function completeBytes(text: string, content: SweepFileContent): number {
+  return Buffer.byteLength(text.slice(0, content.completeLength), 'utf8');
 }
 
 /** Reads a sweep file's text; an error message says what is wrong with it. */
@@ -112,7 +117,7 @@ export function readSweepFile(text: string, format: SweepFormat): SweepFileConte
   let columns: string[] | undefined;
   const body = format === 'csv' ? lines.slice(2) : lines.slice(1);
   if (format === 'csv') {
-    if (lines[1] === undefined) return { header, columns: [], rows, completeBytes: end };
+    if (lines[1] === undefined) return { header, columns: [], rows, completeLength: end };
     columns = (parse(lines[1], { relax_column_count: true }) as string[][])[0] ?? [];
   }
   for (const [k, line] of body.entries()) {
@@ -126,7 +131,7 @@ export function readSweepFile(text: string, format: SweepFormat): SweepFileConte
     if (!Number.isSafeInteger(index) || index < 0 || index >= header.points) return { error: `line ${at} names point ${index}, outside the sweep's 0..${header.points - 1}` };
     rows.push({ index, text: line + '\n' });
   }
-  return { header, ...(columns !== undefined ? { columns } : {}), rows, completeBytes: end };
+  return { header, ...(columns !== undefined ? { columns } : {}), rows, completeLength: end };
 }
 
 /**
@@ -140,7 +145,7 @@ export function mergeSweepFiles(parts: readonly { path: string; text: string }[]
   for (const part of parts) {
     const c = readSweepFile(part.text, format);
     if ('error' in c) return { error: `${part.path}: ${c.error}` };
-    if (c.completeBytes !== part.text.length) return { error: `${part.path}: its last line is cut off (an unfinished shard? run it again with --resume)` };
+    if (c.completeLength !== part.text.length) return { error: `${part.path}: its last line is cut off (an unfinished shard? run it again with --resume)` };
     if (first === undefined) {
       first = c;
       firstPath = part.path;

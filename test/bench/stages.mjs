@@ -12,7 +12,7 @@ loadCli();
 const imported = performance.now();
 const { loadCircuit } = await import('../../dist/api/loadCircuit.js');
 const { measuredQubits, scheduleCircuit } = await import('../../dist/api/simulate.js');
-const { buildProgram } = await import('../../dist/program/program.js');
+const { buildProgram, hasDrift } = await import('../../dist/program/program.js');
 const { ProblemList } = await import('../../dist/format/problem.js');
 const { buildPlan } = await import('../../dist/plan/buildPlan.js');
 const { compilePlan } = await import('../../dist/plan/compilePlan.js');
@@ -39,7 +39,8 @@ const read = lap();
 const schedule = scheduleCircuit(loaded.circuit, loaded.profile);
 const program = buildProgram(loaded.circuit, loaded.profile, schedule, new ProblemList());
 const prog = lap();
-const compiled = compilePlan(buildPlan(n, program.noisy));
+// as simulate: programs with drift keep their diagonal zz terms apart (keepDiagonal)
+const compiled = compilePlan(buildPlan(n, program.noisy, { keepDiagonal: hasDrift(loaded.profile) }));
 const plan = lap();
 const rho = createSharedDensityMatrix(n, family);
 pool?.ready();

@@ -112,6 +112,25 @@ describe('fray sweep', () => {
     }
   });
 
+  it('--resume cuts a file at the right byte when the header holds non-ASCII text (a circuit named in UTF-8)', async () => {
+    // The header names the circuit file; "é" and "µ" are two bytes each in UTF-8 but one UTF-16
+    // unit in a JS string, so a cut at the string length would land inside the last kept row.
+    const named = join(dir, 'étude-µs.yaml');
+    writeFileSync(named, readFileSync(chain, 'utf8'));
+    for (const ext of ['csv', 'jsonl']) {
+      const whole = join(dir, `utf8-full.${ext}`);
+      await fray('sweep', named, ...VARY, '--out', whole, '--quiet');
+      const text = readFileSync(whole, 'utf8');
+      expect(text).toContain('étude-µs.yaml');
+      const lines = text.split('\n');
+      const keep = ext === 'csv' ? 4 : 3;
+      const partial = join(dir, `utf8-partial.${ext}`);
+      writeFileSync(partial, lines.slice(0, keep).join('\n') + '\n' + lines[keep]!.slice(0, 20));
+      expect((await fray('sweep', named, ...VARY, '--out', partial, '--resume', '--quiet')).code).toBe(0);
+      expect(readFileSync(partial, 'utf8')).toBe(text);
+    }
+  });
+
   it('an output path that cannot be written is an input error naming the option', async () => {
     const r = await fray('sweep', chain, '--vary', 'wait=0,1', '--out', join(dir, 'no-such-folder', 'x.csv'));
     expect(r.code).toBe(2);
