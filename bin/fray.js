@@ -1,7 +1,8 @@
 #!/usr/bin/env node
 // Thin launcher: the CLI lives in src/cli, bundled into dist/bundle/cli.cjs by `npm install`
 // (prepare; scripts/bundle.mjs) and started through V8's code cache (./loadCli.js).
-import { loadCli } from './loadCli.js';
+'use strict';
+const { loadCli } = require('./loadCli.js');
 
 // A reader that stops early (`fray run --json | head`) closes the pipe: end quietly, as
 // line-oriented tools do, instead of dying on an unhandled EPIPE with a stack trace.

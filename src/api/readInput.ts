@@ -15,7 +15,7 @@ import { MAX_INPUT_BYTES, recordTooLarge } from '../format/yamlTree.js';
  */
 export const MAX_DATA_FILE_BYTES = 256 << 20;
 
-/** Bytes read per call; the buffer grows only as the file does. */
+/** Bytes read per call after the first (which asks for the size fstat gives); the buffer grows only as the file does. */
 const READ_CHUNK = 1 << 16;
 
 /** The outcome of a bounded read: the text, or why there is none (one line, no path). */
@@ -33,8 +33,10 @@ export function readBounded(path: string, limit: number): BoundedRead {
     const chunks: Buffer[] = [];
     let size = 0;
     for (;;) {
-      const want = Math.min(READ_CHUNK, limit + 1 - size);
-      const buf = Buffer.alloc(want);
+      // first the size fstat gives and one byte more (a file that does not grow is read in one
+      // call), then chunks; only the bytes read are used, so the buffers need no zero-filling
+      const want = Math.min(chunks.length === 0 ? st.size + 1 : READ_CHUNK, limit + 1 - size);
+      const buf = Buffer.allocUnsafe(want);
       const got = readSync(fd, buf, 0, want, null);
       if (got === 0) break;
       chunks.push(got === want ? buf : buf.subarray(0, got));

@@ -1,6 +1,6 @@
 import { existsSync, writeFileSync } from 'node:fs';
 import type { Command } from 'commander';
-import { convertToYaml, exportQasm, type Converted } from '../api/convert.js';
+import type { Converted } from '../api/convert.js';
 import { formatProblem } from '../format/problem.js';
 import { UsageError, type CliIO } from './main.js';
 
@@ -13,7 +13,10 @@ export function addFormatCommands(program: Command, io: CliIO): void {
     .option('--out <file>', 'write the YAML here instead of to standard output')
     .option('--force', 'overwrite the --out file if it exists')
     .addHelpText('after', '\nExamples:\n  fray convert circuits/qasm/qft4.qasm --out qft4.yaml\n')
-    .action((file: string, opts: { out?: string; force?: boolean }) => emit(convertToYaml(file), opts, io))
+    .action(async (file: string, opts: { out?: string; force?: boolean }) => {
+      const { convertToYaml } = await import('../api/convert.js');
+      emit(convertToYaml(file), opts, io);
+    })
     .exitOverride();
 
   program
@@ -25,9 +28,10 @@ export function addFormatCommands(program: Command, io: CliIO): void {
     .option('--force', 'overwrite the --out file if it exists')
     .option('--device <file>', "noise profile named in the header comment instead of the circuit's 'device:'")
     .addHelpText('after', '\nExamples:\n  fray export circuits/ghz5.yaml --qasm 3\n  fray export circuits/qpe3-asap.yaml --qasm 2 --out qpe3.qasm\n\nNoise is not part of OpenQASM: the header comment names the profile; noise steps are dropped with a warning.\n')
-    .action((file: string, opts: { qasm: 2 | 3; out?: string; force?: boolean; device?: string }) =>
-      emit(exportQasm(file, opts.qasm, opts.device !== undefined ? { device: opts.device } : {}), opts, io),
-    )
+    .action(async (file: string, opts: { qasm: 2 | 3; out?: string; force?: boolean; device?: string }) => {
+      const { exportQasm } = await import('../api/convert.js');
+      emit(exportQasm(file, opts.qasm, opts.device !== undefined ? { device: opts.device } : {}), opts, io);
+    })
     .exitOverride();
 }
 

@@ -2,8 +2,7 @@ import { loadCircuit } from '../api/loadCircuit.js';
 import { mitigate, type MitigateOptions } from '../mitigation/mitigate.js';
 import { FIT_KINDS, type FitKind } from '../mitigation/extrapolate.js';
 import { READOUT_METHODS, type ReadoutMethod } from '../mitigation/readoutCorrection.js';
-import { MAX_FOLD_SCALE, type FoldOrder } from '../transforms/fold.js';
-import { MAX_TWIRL_INSTANCES } from '../transforms/twirl.js';
+import type { FoldOrder } from '../transforms/fold.js';
 import { DECOUPLING_SEQUENCES, type DecouplingSequence } from '../transforms/decouple.js';
 import { parseDuration } from '../format/duration.js';
 import { fileStart, InputError, type SourcePosition } from '../format/problem.js';
@@ -80,23 +79,4 @@ export async function mitigateCommand(file: string, opts: Record<string, unknown
   }
   const color = wantColor(process.stdout, opts['color'] !== false) && io.stdout === process.stdout;
   io.stdout.write(renderMitigationReport(result, makeStyle(color)));
-}
-
-/** `--twirl N`: a whole number of sampled instances, 1 to MAX_TWIRL_INSTANCES. */
-export function parseInstances(v: string): number {
-  const n = Number(v);
-  if (!/^\d+$/.test(v) || n < 1 || n > MAX_TWIRL_INSTANCES) throw new UsageError(`--twirl ${v}: expected a whole number of instances from 1 to ${MAX_TWIRL_INSTANCES} (or --twirl alone for the exact twirl)`);
-  return n;
-}
-
-/** `--zne 1,2,3`: distinct noise scales, each a number in [1, MAX_FOLD_SCALE], at least two. */
-export function parseScales(v: string): number[] {
-  const parts = v.split(',').map((s) => s.trim());
-  const scales = parts.map(Number);
-  if (parts.some((s) => s === '') || scales.some((x) => !Number.isFinite(x) || x < 1 || x > MAX_FOLD_SCALE)) {
-    throw new UsageError(`--zne ${v}: expected comma-separated noise scales from 1 to ${MAX_FOLD_SCALE}, e.g. --zne 1,3,5`);
-  }
-  if (scales.length < 2) throw new UsageError(`--zne ${v}: extrapolation needs at least 2 noise scales, e.g. --zne 1,3`);
-  if (new Set(scales).size !== scales.length) throw new UsageError(`--zne ${v}: the noise scales must be distinct`);
-  return scales;
 }

@@ -1,7 +1,10 @@
 import { parseOverride, type Override } from '../format/overrides.js';
 import { UsageError } from './main.js';
 import { Option, type Command } from 'commander';
-import { parseCondition, parseMetric, type Condition, type Metric, type StudyTarget } from '../studies/index.js';
+// the study modules themselves, not studies/index.ts, so that `fray run` loads none of the others
+import { parseCondition, type Condition } from '../studies/conditions.js';
+import { parseMetric, type Metric } from '../studies/metrics.js';
+import type { StudyTarget } from '../studies/variant.js';
 
 /**
  * Option parsers shared by the commands (run, compare, sweep, budget, threshold): each turns

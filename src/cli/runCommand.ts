@@ -8,8 +8,6 @@ import { runJson } from './runJson.js';
 import { makeStyle, wantColor } from './style.js';
 import { UsageError, VERSION, type CliIO } from './main.js';
 import { parseObserveOptions, parseSetOptions } from './options.js';
-import { writeHtmlReport } from './htmlReport.js';
-import { runPage } from '../html/index.js';
 
 /** `fray run FILE`: parses the options, runs the simulation, writes the report or JSON in one piece. */
 export async function runCommand(file: string, opts: Record<string, unknown>, io: CliIO): Promise<void> {
@@ -48,7 +46,11 @@ export async function runCommand(file: string, opts: Record<string, unknown>, io
     return;
   }
   const sim = simulate(file, options);
-  await writeHtmlReport(opts, io, () => runPage(sim, { top: opts['top'] as number, version: VERSION }));
+  if (opts['html'] !== undefined) {
+    // the page's modules load only when asked for
+    const [{ writeHtmlReport }, { runPage }] = await Promise.all([import('./htmlReport.js'), import('../html/index.js')]);
+    await writeHtmlReport(opts, io, () => runPage(sim, { top: opts['top'] as number, version: VERSION }));
+  }
   if (opts['json']) {
     io.stdout.write(toJson(runJson(sim, { showSchedule: opts['schedule'] === true, showState: opts['state'] === true })) + '\n');
     return;

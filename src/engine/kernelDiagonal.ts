@@ -10,10 +10,12 @@
  */
 import { partStart } from './partition.js';
 
-// Preallocated for registers up to 16 qubits: the optimised kernel then never reaches the
-// growth branch (V8 would deoptimise at an allocation site it has no feedback for).
-let packA = new Int32Array(1 << 16);
-let packB = new Int32Array(1 << 16);
+// Allocated by the first call for registers up to 16 qubits (or more): the optimised kernel then
+// never reaches the growth branch (V8 would deoptimise at an allocation site it has no feedback
+// for), and a process that applies no diagonal pass (2 × 256 KiB) allocates nothing.
+const PACK_MIN_LENGTH = 1 << 16;
+let packA = new Int32Array(0);
+let packB = new Int32Array(0);
 
 /** Packed bits of every register index i < 2^n on `qubits` (first listed = most significant), into `out`. */
 function packBits(n: number, qubits: ArrayLike<number>, out: Int32Array): void {
@@ -46,8 +48,8 @@ export function applyDiagonal(
   const rowStart = partStart(D, part, parts);
   const rowEnd = partStart(D, part + 1, parts);
   if (packA.length < D) {
-    packA = new Int32Array(D);
-    packB = new Int32Array(D);
+    packA = new Int32Array(Math.max(D, PACK_MIN_LENGTH));
+    packB = new Int32Array(Math.max(D, PACK_MIN_LENGTH));
   }
   packBits(n, a, packA);
   const dA = 1 << a.length;

@@ -1,4 +1,4 @@
-import { BUILTIN_GATES, OPENQASM_NAMED_GATES } from '../circuit/gates.js';
+import { BUILTIN_GATES, OPENQASM_NAMED_GATES, type GateDef } from '../circuit/gates.js';
 import { sequenceUnitary } from '../circuit/compose.js';
 import { RESERVED_NAMES } from '../circuit/expression.js';
 import { unitarityResidual, type CMatrix } from '../linalg/cmatrix.js';
@@ -51,6 +51,8 @@ interface SubStep {
 export class GateLibrary {
   private readonly customs = new Map<string, LibraryGate>();
   private readonly written = new Map<string, GateDefinition>();
+  /** Built-in unitaries by gate and exact angles: every application of cx (or of rz(0.3)) shares one matrix, built once. */
+  private readonly builtinMatrices = new Map<string, CMatrix>();
 
   constructor(private readonly circuitParams: Readonly<Record<string, number>>) {}
 
@@ -60,9 +62,20 @@ export class GateLibrary {
     if (own !== undefined) return own;
     const b = BUILTIN_GATES.get(name);
     if (b !== undefined) {
-      return { name: b.name, qubits: b.qubits, params: b.params, kind: 'builtin', unitary: (a) => b.matrix(a) };
+      return { name: b.name, qubits: b.qubits, params: b.params, kind: 'builtin', unitary: (a) => this.builtinMatrix(b, a) };
     }
     return this.customs.get(name);
+  }
+
+  private builtinMatrix(b: GateDef, angles: readonly number[]): CMatrix {
+    // String(x) names every double exactly but writes -0 as 0
+    const key = `${b.name}(${angles.map((x) => (Object.is(x, -0) ? '-0' : String(x))).join(',')})`;
+    let m = this.builtinMatrices.get(key);
+    if (m === undefined) {
+      m = b.matrix(angles);
+      this.builtinMatrices.set(key, m);
+    }
+    return m;
   }
 
   /** The custom gates that read without problems, as written (angles as expression text). */

@@ -38,11 +38,12 @@ export function readSteps(node: YNode, ctx: StepContext, problems: ProblemList, 
   }
   // Qubit → the step (1-based) and position of its measurement: measurement is terminal.
   const measured = new Map<number, { step: number; at: SourcePosition }>();
+  const gateNames = ctx.gates.names();
   node.items.forEach((item, index) => {
     const stepNo = index + 1;
     const map = asMap(item, `step ${stepNo}`, problems);
     if (map === undefined) return;
-    const shape = splitStep(map, ctx.gates.names(), `step ${stepNo}`, problems);
+    const shape = splitStep(map, gateNames, `step ${stepNo}`, problems);
     if (shape === undefined) return;
     const action = shape.action?.key ?? 'noise';
     const where = `step ${stepNo} (${action})`;

@@ -100,9 +100,10 @@ export function parseYamlTree(text: string, file: string, problems: ProblemList,
   }
   // Each alias's anchor, found in one pass in document order (the last anchor of that name
   // before the alias, as YAML defines it); Alias.resolve walks the whole document per call.
+  // An alias is written `*name`: text without a '*' has none, and the pass is skipped.
   const targets = new Map<Alias, unknown>();
   const latest = new Map<string, unknown>();
-  visit(doc, {
+  if (text.includes('*')) visit(doc, {
     Node: (_key, node) => {
       if (isAlias(node)) {
         const t = latest.get(node.source);

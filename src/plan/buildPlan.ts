@@ -15,6 +15,7 @@ import { DIAGONAL_BIN_MAX_QUBITS, diagonalBins, isDiagonalSuperoperator, memoise
 import { fuseInstructions, type FusedGroup } from './fuseInstructions.js';
 import { instructionQubits, instructionSuperoperator } from './instructionSuperoperator.js';
 import type { Plan, PlanStep } from './plan.js';
+import type { CMatrix } from '../linalg/cmatrix.js';
 
 /** Options of buildPlan. */
 export interface BuildPlanOptions {
@@ -24,11 +25,12 @@ export interface BuildPlanOptions {
   readonly keepDiagonal?: boolean;
 }
 
-/** The call for one non-diagonal fused group: real1 / real2 when the map is Hermiticity-preserving, else general. */
-function groupStep(g: FusedGroup): PlanStep {
+/** The call for one non-diagonal fused group: real1 / real2 when the map is Hermiticity-preserving, else general. `realForms` keeps realFormOf per superoperator object (groups of one history share theirs). */
+function groupStep(g: FusedGroup, realForms: Map<CMatrix, Float64Array | undefined>): PlanStep {
   const k = g.qubits.length;
   if (k <= 2) {
-    const real = realFormOf(g.superop, k);
+    if (!realForms.has(g.superop)) realForms.set(g.superop, realFormOf(g.superop, k));
+    const real = realForms.get(g.superop);
     if (real !== undefined) {
       const kernel = k === 2 ? 'real2' : isTracePreservingRealForm(real) ? 'real1tp' : 'real1';
       return { kernel, qubits: g.qubits, sources: g.sources, numbers: real };
@@ -68,6 +70,7 @@ export function buildPlan(n: number, instructions: readonly Instruction[], optio
   let batch: { members: DiagonalMember[]; sources: number[]; at: number } | undefined;
   const touched = new Set<number>();
   const tableOf = memoisedDiagonalTable();
+  const realForms = new Map<CMatrix, Float64Array | undefined>();
   const closeBatch = (): void => {
     if (batch === undefined) return;
     steps[batch.at] = diagonalStep(batch.members, batch.sources, tableOf);
@@ -86,7 +89,7 @@ export function buildPlan(n: number, instructions: readonly Instruction[], optio
       touched.clear();
       continue;
     }
-    steps.push(groupStep(g));
+    steps.push(groupStep(g, realForms));
     for (const q of g.qubits) touched.add(q);
   }
   closeBatch();

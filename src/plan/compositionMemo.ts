@@ -8,11 +8,26 @@
 import type { CMatrix } from '../linalg/cmatrix.js';
 import { composeEmbedded, composeEmbeddedBefore } from './embedSuperoperator.js';
 
-/** composeEmbedded / composeEmbeddedBefore with a memo keyed by operand identity (one per fusion run). */
+/**
+ * Bytes of results a CompositionMemo keeps before it starts afresh: a long circuit whose
+ * compositions are all distinct (say, a new angle in every layer) would otherwise hold every
+ * intermediate superoperator (64 KiB each for a 3-qubit group) until its plan is built.
+ */
+export const COMPOSITION_MEMO_BYTES = 8 * 1024 * 1024;
+
+/** composeEmbedded / composeEmbeddedBefore with a memo keyed by operand identity (one per fusion run; at most `limitBytes` of results, then emptied: a result computed again has the same bits). */
 export class CompositionMemo {
   private readonly ids = new WeakMap<CMatrix, number>();
   private nextId = 0;
   private readonly results = new Map<string, CMatrix>();
+  private bytes = 0;
+
+  constructor(private readonly limitBytes = COMPOSITION_MEMO_BYTES) {}
+
+  /** Results held now (for tests of the bound). */
+  get size(): number {
+    return this.results.size;
+  }
 
   private idOf(m: CMatrix): number {
     let id = this.ids.get(m);
@@ -27,7 +42,12 @@ export class CompositionMemo {
     let r = this.results.get(key);
     if (r === undefined) {
       r = compute();
+      if (this.bytes + r.data.byteLength > this.limitBytes) {
+        this.results.clear();
+        this.bytes = 0;
+      }
       this.results.set(key, r);
+      this.bytes += r.data.byteLength;
     }
     return r;
   }

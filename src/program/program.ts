@@ -3,7 +3,7 @@ import type { Instruction, Origin } from '../engine/instruction.js';
 import type { RecordInstruction, RecordProgram } from '../engine/recordProgram.js';
 import { misplacedZz, plainKinds, type NoiseKindsSpec } from '../format/noiseKindsSpec.js';
 import { ProblemList } from '../format/problem.js';
-import { CustomChannelError, ErrorSolveError, gateNoise, idleChannel, type QubitDecay } from '../noise/gateNoise.js';
+import { CustomChannelError, ErrorSolveError, gateNoise, idleChannel, type GateNoise, type GateNoiseInput, type QubitDecay } from '../noise/gateNoise.js';
 import { detuningAngle, zRotation, zzAngle, zzRotation } from '../noise/coherent.js';
 import type { NoiseProfile } from '../noise/profile.js';
 import type { IdleWindow, Schedule, TimedOperation } from '../schedule/schedule.js';
@@ -81,6 +81,18 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
   };
   const decay = (q: number): QubitDecay => profile.qubits[q]!;
   const channels = circuit.channels;
+  // gateNoise once per distinct input: every application of one noise entry (a gate name's
+  // profile entry, or the same step noise written again) gets the same channels, shared
+  const noiseByInput = new Map<string, GateNoise>();
+  const noiseOf = (input: GateNoiseInput): GateNoise => {
+    const key = JSON.stringify([input.k, input.duration, input.thermal, input.decay, input.kinds], exactNumbers);
+    let gn = noiseByInput.get(key);
+    if (gn === undefined) {
+      gn = gateNoise(input);
+      noiseByInput.set(key, gn);
+    }
+    return gn;
+  };
   const emitIdle = (w: IdleWindow): void => {
     if (profile.idle !== 'thermal') return;
     const ch = idleChannel(decay(w.qubit), w.end - w.start);
@@ -109,7 +121,7 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
       return;
     }
     try {
-      const gn = gateNoise({
+      const gn = noiseOf({
         k,
         duration,
         thermal,
@@ -238,4 +250,9 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
     }
   }
   return { n, noisy, origins, ideal, record: recordProgram() };
+}
+
+/** JSON.stringify replacer that writes every number exactly (-0, infinities and NaN included), for cache keys. */
+function exactNumbers(_key: string, v: unknown): unknown {
+  return typeof v === 'number' ? (Object.is(v, -0) ? '-0' : String(v)) : v;
 }

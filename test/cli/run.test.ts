@@ -124,6 +124,22 @@ describe('fray run', () => {
     expect(JSON.parse(r.stdout)).toEqual({ rejected: false, main: 'function' });
   });
 
+  it('a bundled run of a small circuit loads none of the Node modules the bundle defers (scripts/bundle.mjs LAZY)', () => {
+    // what the whole process loaded, by Node's own list
+    const probe =
+      "const { loadCli } = require('./bin/loadCli.js'); const cli = loadCli(); const sink = { write: () => true };" +
+      "cli.main(['run', 'circuits/bench/one-qubit.yaml', '--json'], { stdout: sink, stderr: sink }).then((code) => console.log(JSON.stringify({ code, loaded: process.moduleLoadList })))";
+    const r = spawnSync(process.execPath, ['-e', probe], { encoding: 'utf8' });
+    expect(r.status, r.stderr).toBe(0);
+    const { code, loaded } = JSON.parse(r.stdout) as { code: number; loaded: string[] };
+    expect(code).toBe(0);
+    for (const id of ['child_process', 'crypto', 'worker_threads', 'v8', 'readline']) expect(loaded, id).not.toContain(`NativeModule ${id}`);
+    // a run opens the worker-thread module only for threads (9+ qubits): the same run on 10 qubits does
+    const threaded = spawnSync(process.execPath, ['-e', probe.replace('circuits/bench/one-qubit.yaml', 'circuits/bench/layers10x20.yaml')], { encoding: 'utf8' });
+    expect(threaded.status, threaded.stderr).toBe(0);
+    expect(JSON.parse(threaded.stdout).loaded).toContain('NativeModule worker_threads');
+  });
+
   it('the bundled command (bin/fray.js) runs sweep workers, plots and OpenQASM, whose packages load from outside the bundle', () => {
     const qasm = spawnSync(process.execPath, ['bin/fray.js', 'run', 'circuits/qasm/ghz-wait.qasm', '--json'], { encoding: 'utf8' });
     expect(qasm.status, qasm.stderr).toBe(0);

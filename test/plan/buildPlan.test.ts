@@ -5,7 +5,7 @@ import { referenceKernels } from '../../src/engine/kernels.js';
 import { runNoisy } from '../../src/engine/run.js';
 import { runCompiled } from '../../src/engine/runCompiled.js';
 import { ThreadPool } from '../../src/engine/threadPool.js';
-import { identity } from '../../src/linalg/cmatrix.js';
+import { identity, type CMatrix } from '../../src/linalg/cmatrix.js';
 import { buildPlan } from '../../src/plan/buildPlan.js';
 import { compilePlan } from '../../src/plan/compilePlan.js';
 import { denseChannel, denseReset, DENSE_AGREEMENT, rhoDiff } from '../engine/dense.js';
@@ -171,5 +171,48 @@ describe('fusion structure', () => {
     const plan = buildPlan(2, program);
     expect(plan.steps).toHaveLength(1);
     expect(runCompiled(compilePlan(plan)).data[0]).toBe(1);
+  });
+});
+
+describe('one superoperator per distinct numbers and one composition per distinct operands (src/plan/instructionSuperoperator.ts, src/plan/compositionMemo.ts)', () => {
+  it('a plan whose instructions share matrix and Kraus objects has the same numbers, bit for bit, as one where every instruction has its own copies', () => {
+    const copy = (m: CMatrix): CMatrix => ({ rows: m.rows, cols: m.cols, data: Float64Array.from(m.data) });
+    const rng = mulberry32(4711);
+    for (const n of [3, 5]) {
+      // a few payloads used again and again, as the applications of one noise entry are
+      const payloads: Instruction[] = randomProgram(rng, n, 8).filter((ins) => ins.op !== 'reset');
+      const shared: Instruction[] = Array.from({ length: 40 }, () => payloads[Math.floor(rng() * payloads.length)]!);
+      const own: Instruction[] = shared.map((ins) => (ins.op === 'unitary' ? { ...ins, matrix: copy(ins.matrix) } : ins.op === 'channel' ? { ...ins, kraus: ins.kraus.map(copy) } : ins));
+      const a = buildPlan(n, shared);
+      const b = buildPlan(n, own);
+      expect(a.steps.length).toBe(b.steps.length);
+      a.steps.forEach((s, i) => {
+        expect(s.kernel).toBe(b.steps[i]!.kernel);
+        expect(Array.from(s.numbers)).toEqual(Array.from(b.steps[i]!.numbers));
+      });
+      expect(maxDiff(runCompiled(compilePlan(a)).data, runCompiled(compilePlan(b)).data)).toBe(0);
+    }
+  });
+
+  it('groups of one history (brickwork layers of one rotation, one cx and shared noise) share superoperators, with the numbers of a plan without sharing', () => {
+    const copy = (m: CMatrix): CMatrix => ({ rows: m.rows, cols: m.cols, data: Float64Array.from(m.data) });
+    const n = 6;
+    const noise = phaseDampingKraus(0.02);
+    const shared: Instruction[] = [];
+    for (let layer = 0; layer < 6; layer++) {
+      const turn = rz(0.3 + 0.1 * (layer % 2));
+      for (let q = 0; q < n; q++) shared.push({ op: 'unitary', qubits: [q], matrix: turn }, { op: 'channel', qubits: [q], kraus: noise });
+      for (let q = layer % 2; q + 1 < n; q += 2) shared.push({ op: 'unitary', qubits: [q, q + 1], matrix: CNOT }, { op: 'channel', qubits: [q + 1], kraus: noise });
+    }
+    const own: Instruction[] = shared.map((ins) => (ins.op === 'unitary' ? { ...ins, matrix: copy(ins.matrix) } : ins.op === 'channel' ? { ...ins, kraus: ins.kraus.map(copy) } : ins));
+    const a = buildPlan(n, shared);
+    const b = buildPlan(n, own);
+    // the three cx groups of a layer are one history: fewer distinct number arrays than steps;
+    // superoperators are memoised by the bits of their numbers, so the copies share them too
+    expect(new Set(a.steps.map((s) => s.numbers)).size).toBeLessThan(a.steps.length);
+    expect(new Set(b.steps.map((s) => s.numbers)).size).toBe(new Set(a.steps.map((s) => s.numbers)).size);
+    expect(a.steps.map((s) => [s.kernel, s.qubits, s.sources])).toEqual(b.steps.map((s) => [s.kernel, s.qubits, s.sources]));
+    a.steps.forEach((s, i) => expect(Array.from(s.numbers)).toEqual(Array.from(b.steps[i]!.numbers)));
+    expect(maxDiff(runCompiled(compilePlan(a)).data, runCompiled(compilePlan(b)).data)).toBe(0);
   });
 });

@@ -103,6 +103,22 @@ describe('plan memos and the diagonal table are exact', () => {
     expect(sameBits(r.data, composeEmbedded(s, [1], 2, g).data)).toBe(true);
   });
 
+  it('the composition memo empties itself past its byte bound, and a result computed again has the same bits', () => {
+    const rng = mulberry32(31_201);
+    const s = instructionSuperoperator({ op: 'channel', qubits: [0], kraus: randomKraus(rng, 2, 2) });
+    const g = instructionSuperoperator({ op: 'unitary', qubits: [0, 1], matrix: randomUnitary(rng, 4) });
+    // a 2-qubit result is 16 × 16 complex = 4 KiB: room for two, so the third empties the memo
+    const memo = new CompositionMemo(2 * 4096);
+    const first = memo.after(s, [1], 2, g);
+    memo.after(s, [0], 2, g);
+    expect(memo.size).toBe(2);
+    memo.before(g, s, [1], 2);
+    expect(memo.size).toBe(1);
+    const again = memo.after(s, [1], 2, g);
+    expect(again).not.toBe(first);
+    expect(sameBits(again.data, first.data)).toBe(true);
+  });
+
   it('the compiled plan stores an array shared by several calls once', () => {
     const b = new CompiledPlanBuilder(3);
     const table = new Float64Array(32);
