@@ -268,7 +268,7 @@ export function simulateLoaded(loaded: LoadedCircuit, options: SimulateOptions =
   } else {
     plan = buildPlan(n, program.noisy, { fuse: options.fuse !== false, keepDiagonal: hasDrift(profile) });
     rho = runCompiled(compilePlan(plan), pool, THREADS_MIN_QUBITS, family);
-    engine = { kernels: kernelFamilyOf(rho), threads: pool !== undefined ? pool.parts : 1 };
+    engine = { kernels: kernelFamilyOf(rho), threads: pool !== undefined ? pool.splitThreads : 1 };
     ideal = runIdeal(n, program.ideal, fastKernels);
   }
   const measured = measuredQubits(circuit);
@@ -315,7 +315,7 @@ function simulateRecord(
     observe,
     ...(options.shots !== undefined ? { shots: options.shots, seed: options.seed ?? DEFAULT_SEED } : {}),
   });
-  const engineInfo: EngineInfo = fast ? { kernels: 'js', threads: pool !== undefined && n >= THREADS_MIN_QUBITS ? pool.parts : 1 } : { kernels: 'reference', threads: 1 };
+  const engineInfo: EngineInfo = fast ? { kernels: 'js', threads: pool !== undefined && n >= THREADS_MIN_QUBITS ? pool.splitThreads : 1 } : { kernels: 'reference', threads: 1 };
   const result = runResult(loaded, schedule, figures, [], bits, options, problems, engineInfo);
   return { circuit, profile, schedule, program, rho, ideal, branches: { noisy, ideal: idealBranches }, result, warnings: problems.warnings };
 }

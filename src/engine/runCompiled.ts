@@ -43,34 +43,43 @@ export function kernelFamilyOf(rho: DensityMatrix): KernelFamily {
  * n ≥ minThreadQubits (THREADS_MIN_QUBITS by default; tests lower it to split small registers).
  * The real-form calls run the WebAssembly kernels when `rho` lives in WebAssembly memory
  * (createSharedDensityMatrix), else the JS kernels, which wait for the JIT on large registers.
+ * Worker threads that are still starting do not hold the run up: the main thread applies the
+ * first calls alone and the workers join at the first call after they are ready (each element
+ * gets the same operations however a pass is split, so the result is the same bit for bit).
+ * Returns the most threads that shared a pass.
  */
-export function applyCompiled(rho: DensityMatrix, plan: CompiledPlan, pool?: ThreadPool, minThreadQubits = THREADS_MIN_QUBITS): void {
+export function applyCompiled(rho: DensityMatrix, plan: CompiledPlan, pool?: ThreadPool, minThreadQubits = THREADS_MIN_QUBITS): number {
   if (plan.n !== rho.n) throw new RangeError(`applyCompiled: plan for ${plan.n} qubits, register of ${rho.n}`);
   const n = rho.n;
   const wantThreads = pool !== undefined && n >= minThreadQubits && rho.data.buffer instanceof SharedArrayBuffer;
-  if (wantThreads) pool.ready();
   // (a pool beyond WASM_MAX_PARTS parts, which the scratch area cannot serve, runs the JS kernels on the same memory)
-  const reg = wantThreads && pool.parts > WASM_MAX_PARTS ? undefined : wasmRegisterOf(rho.data);
+  const reg = wantThreads && Math.floor(pool.threads) > WASM_MAX_PARTS ? undefined : wasmRegisterOf(rho.data);
   reg?.loadArena(plan.arena);
   const wasm = reg?.bind();
   if (reg === undefined && n >= WARM_MIN_QUBITS) awaitOptimisedKernels();
-  if (wantThreads && pool.parts > 1) {
-    pool.attach(rho.data, plan.arena, plan.words, reg?.handle());
-    try {
-      // runs of row-local calls go to the threads at once (one hand-off instead of one per call)
-      const { starts, words } = plan;
-      for (let i = 0; i < starts.length; ) {
-        let j = i + 1;
-        if (rowLocalCall(words, starts[i]!, n, pool.parts)) while (j < starts.length && rowLocalCall(words, starts[j]!, n, pool.parts)) j++;
-        pool.run(n, starts[i]!, j - i);
-        i = j;
+  const { starts, words } = plan;
+  let i = 0;
+  if (wantThreads) {
+    // the main thread alone until the workers are ready
+    while (i < starts.length && !pool.tryReady()) executeCall(rho.data, n, words, starts[i++]!, plan.arena, 0, 1, wasm);
+    if (i < starts.length && pool.parts > 1) {
+      pool.attach(rho.data, plan.arena, words, reg?.handle());
+      try {
+        // runs of row-local calls go to the threads at once (one hand-off instead of one per call)
+        while (i < starts.length) {
+          let j = i + 1;
+          if (rowLocalCall(words, starts[i]!, n, pool.parts)) while (j < starts.length && rowLocalCall(words, starts[j]!, n, pool.parts)) j++;
+          pool.run(n, starts[i]!, j - i);
+          i = j;
+        }
+      } finally {
+        pool.detach();
       }
-    } finally {
-      pool.detach();
+      return pool.parts;
     }
-    return;
   }
-  for (const at of plan.starts) executeCall(rho.data, n, plan.words, at, plan.arena, 0, 1, wasm);
+  for (; i < starts.length; i++) executeCall(rho.data, n, words, starts[i]!, plan.arena, 0, 1, wasm);
+  return 1;
 }
 
 /**

@@ -106,6 +106,29 @@ export class ThreadPool {
     this.parts = want + 1;
   }
 
+  /**
+   * Non-blocking ready(): true once every worker has started and warmed up (then `parts` is
+   * final, as after ready()), false while some are still booting. applyCompiled runs the first
+   * passes on the main thread alone until this turns true, instead of waiting for the workers.
+   */
+  tryReady(): boolean {
+    const want = this.pending;
+    if (want === 0) return true;
+    if (Atomics.load(this.ctrl, CTRL_READY) < want) return false;
+    this.pending = 0;
+    this.parts = want + 1;
+    return true;
+  }
+
+  /**
+   * The threads this pool splits passes over: `parts` once the workers are ready (or have
+   * failed), and while they are still starting the threads they will make (what a run reports
+   * as its threads, the same however fast the workers started).
+   */
+  get splitThreads(): number {
+    return this.tryReady() ? this.parts : this.pending + 1;
+  }
+
   /** Number of worker threads (parts − 1). */
   get workerCount(): number {
     return this.parts - 1;

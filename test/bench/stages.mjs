@@ -3,8 +3,8 @@
 // prints one JSON object of milliseconds per stage, in the order a run goes through them:
 // Node's own start (until this script runs), loading the CLI bundle (as bin/fray.js does,
 // through the code cache), reading and validating the YAML, schedule and program, plan (build and pack), waiting
-// for kernels (worker threads started and warmed; for JS kernels also the JIT wait), the passes
-// over ρ, and results (ideal run, figures, JSON text). The stages after the import call the
+// for kernels (the JIT wait of the JS kernels; worker threads that are still starting do not hold
+// the run up: the first passes run on the main thread alone), the passes over ρ, and results (ideal run, figures, JSON text). The stages after the import call the
 // library modules of dist/ the way src/api/simulate.ts does.
 const start = performance.now();
 const { loadCli } = await import('../../bin/loadCli.js');
@@ -43,7 +43,6 @@ const prog = lap();
 const compiled = compilePlan(buildPlan(n, program.noisy, { keepDiagonal: hasDrift(loaded.profile) }));
 const plan = lap();
 const rho = createSharedDensityMatrix(n, family);
-pool?.ready();
 if (family === 'js') awaitOptimisedKernels();
 const wait = lap();
 applyCompiled(rho, compiled, pool);

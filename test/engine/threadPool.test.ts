@@ -29,6 +29,8 @@ function randomCompiled(n: number, seed: number) {
 describe('ThreadPool', () => {
   it('splits passes over 2 threads with bit-for-bit the same result as 1 thread, and is reusable', () => {
     const pool = sharedThreadPool(2);
+    // wait for the worker, so every pass below is split (applyCompiled would not wait)
+    pool.ready();
     for (const [n, seed] of [
       [5, 1],
       [7, 2],
@@ -70,6 +72,7 @@ describe('ThreadPool', () => {
   it('runs of row-local calls go to the threads at once with bit-for-bit the result of 1 thread (2 and 4 threads, both kernel families)', () => {
     for (const threads of [2, 4]) {
       const pool = new ThreadPool(threads, false);
+      pool.ready();
       try {
         for (const [n, seed] of [
           [4, 11],
@@ -107,6 +110,49 @@ describe('ThreadPool', () => {
     expect(local(2, 32)).toBe(false);
   });
 
+  it('passes run on the main thread alone until the workers are ready, then split, with bit-for-bit the result of 1 thread', () => {
+    /** A pool whose workers count as ready only from its `late`-th readiness check on (they have started: ready() waited). */
+    class LatePool extends ThreadPool {
+      checks = 0;
+      constructor(private readonly late: number) {
+        super(2, false);
+        super.ready();
+      }
+      override tryReady(): boolean {
+        return ++this.checks >= this.late && super.tryReady();
+      }
+    }
+    const n = 7;
+    const plan = chainedCompiled(n, 21);
+    for (const late of [2, 5, plan.starts.length + 1]) {
+      const pool = new LatePool(late);
+      try {
+        for (const family of ['wasm', 'js'] as const) {
+          pool.checks = 0;
+          const one = createSharedDensityMatrix(n, family);
+          const mixed = createSharedDensityMatrix(n, family);
+          applyCompiled(one, plan);
+          const threads = applyCompiled(mixed, plan, pool, 1);
+          // joined at call late − 1 (0-based) when the plan is that long, else never
+          expect(threads).toBe(late <= plan.starts.length ? 2 : 1);
+          expect(sameBits(one.data, mixed.data)).toBe(true);
+        }
+      } finally {
+        pool.close();
+      }
+    }
+  });
+
+  it('a pool reports the threads it splits passes over, the same whether its workers have started yet or not', () => {
+    const p = new ThreadPool(2);
+    const before = p.splitThreads;
+    p.ready();
+    expect(before).toBe(2);
+    expect(p.splitThreads).toBe(2);
+    p.close();
+    expect(p.splitThreads).toBe(1);
+  });
+
   it('a pool of 1 thread starts no worker, and a closed pool runs single-threaded', () => {
     const single = new ThreadPool(1);
     single.ready();
@@ -139,6 +185,7 @@ describe('views handed to the workers (issue 13, bug 1: a 4 GiB ρ reached the w
     expect(() => executeCall(short, 4, plan.words, plan.starts[0]!, plan.arena, 0, 1)).toThrow(ViewLengthError);
     // the same through the pool: both threads check their view, and the run fails loudly
     const pool = sharedThreadPool(2);
+    pool.ready();
     expect(() => applyCompiled({ ...rho, data: short }, plan, pool, 1)).toThrow();
   });
 });

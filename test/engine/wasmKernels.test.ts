@@ -249,6 +249,7 @@ describe('WebAssembly kernels', () => {
 
   it('give bit-for-bit the same ρ on 1 and 2 threads, equal to the JS kernels on 2 threads', () => {
     const pool = sharedThreadPool(2, false);
+    pool.ready();
     const n = 7;
     const rng = mulberry32(12_400);
     const b = new CompiledPlanBuilder(n);

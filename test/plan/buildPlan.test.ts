@@ -14,6 +14,8 @@ import { CNOT, cphase, maxDiff, phaseDampingKraus, PLAN_AGREEMENT, randomProgram
 
 // One pool for the whole file; threads are forced onto small registers (minThreadQubits = 1).
 const pool = new ThreadPool(2);
+// wait for the worker, so the 2-thread runs below split their passes (applyCompiled would not wait)
+pool.ready();
 afterAll(() => pool.close());
 
 /** The dense mathjs result of an instruction list applied to |0…0⟩⟨0…0| (independent reference). */
