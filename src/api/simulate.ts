@@ -65,7 +65,8 @@ export interface SimulateOptions {
 /**
  * What ran the noisy run: 'wasm' = WebAssembly SIMD kernels for the real-form and diagonal passes
  * (the general passes always run in JS), 'js' = JS kernels throughout, 'reference' =
- * the instruction-by-instruction reference engine; and how many threads shared each pass.
+ * the instruction-by-instruction reference engine; and the threads the passes are split over (the
+ * first passes of a run may run on the main thread alone while worker threads start; docs/engine.md).
  */
 export interface EngineInfo {
   readonly kernels: KernelFamily | 'reference';
