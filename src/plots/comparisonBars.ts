@@ -20,7 +20,11 @@ export interface ComparisonChart {
   readonly categories: readonly string[];
   readonly categoryTitle: string;
   readonly valueTitle: string;
-  /** Value axis range, e.g. [0, 1] for probabilities or [−1, 1] for expectation values. */
+  /**
+   * Value axis range, e.g. [0, 1] for probabilities or [−1, 1] for expectation values: the range
+   * the quantity has. A bar outside it (an extrapolated expectation value beyond ±1, say) widens
+   * the axis to include it (valueDomain), so it is drawn whole instead of cut at the edge.
+   */
   readonly domain: readonly [number, number];
   /** Categories in a monospace font (bit strings, Pauli strings). */
   readonly monospace?: boolean;
@@ -28,6 +32,17 @@ export interface ComparisonChart {
 
 /** Width of one category group, px. */
 const GROUP_WIDTH = 54;
+
+/** The value axis of a chart: its declared domain, widened to every finite bar value outside it. */
+export function valueDomain(chart: ComparisonChart): [number, number] {
+  let [lo, hi] = chart.domain;
+  for (const b of chart.bars) {
+    if (!Number.isFinite(b.value)) continue;
+    if (b.value < lo) lo = b.value;
+    if (b.value > hi) hi = b.value;
+  }
+  return [lo, hi];
+}
 
 /** The vega-lite spec of a comparison chart. */
 export function comparisonBarsSpec(chart: ComparisonChart): TopLevelSpec {
@@ -46,7 +61,7 @@ export function comparisonBarsSpec(chart: ComparisonChart): TopLevelSpec {
         scale: { paddingInner: 0.25 },
       },
       xOffset: { field: 'series', type: 'nominal', sort: series, scale: { domain: series, paddingInner: 0.08 } },
-      y: { field: 'value', type: 'quantitative', scale: { domain: [...chart.domain], nice: false }, axis: { title: chart.valueTitle, tickCount: 5 } },
+      y: { field: 'value', type: 'quantitative', scale: { domain: valueDomain(chart), nice: false }, axis: { title: chart.valueTitle, tickCount: 5 } },
       fill: {
         field: 'series',
         type: 'nominal',

@@ -1,6 +1,6 @@
 import { XMLValidator } from 'fast-xml-parser';
 import { describe, expect, it } from 'vitest';
-import { comparisonBarsSpec } from '../../src/plots/comparisonBars.js';
+import { comparisonBarsSpec, valueDomain } from '../../src/plots/comparisonBars.js';
 import { descriptionsAsTitles, renderSvg, uniqueIds } from '../../src/plots/render.js';
 
 describe('renderSvg: vega-lite to SVG', () => {
@@ -22,6 +22,22 @@ describe('renderSvg: vega-lite to SVG', () => {
     expect(XMLValidator.validate(svg)).toBe(true);
     expect(svg.match(/<title>/g)?.length).toBe(4);
     expect(svg).toContain('<title>00 ideal &lt;0.5&gt;</title>');
+  });
+
+  it('widens the value axis to a bar outside the declared range (an extrapolated ⟨P⟩ of 1.3), never narrows it', () => {
+    const chart = (values: number[]) => ({
+      bars: values.map((value, i) => ({ category: 'ZZ', series: (['ideal', 'noisy', 'mitigated'] as const)[i]!, value, title: '' })),
+      categories: ['ZZ'],
+      categoryTitle: 'Pauli string',
+      valueTitle: '⟨P⟩',
+      domain: [-1, 1] as const,
+    });
+    expect(valueDomain(chart([1, 0.8, 1.3]))).toEqual([-1, 1.3]);
+    expect(valueDomain(chart([-1, -0.8, -1.05]))).toEqual([-1.05, 1]);
+    expect(valueDomain(chart([1, 0.8, 0.95]))).toEqual([-1, 1]);
+    expect(valueDomain(chart([1, 0.8, Number.NaN]))).toEqual([-1, 1]);
+    const spec = comparisonBarsSpec(chart([1, 0.8, 1.3])) as { encoding: { y: { scale: { domain: number[] } } } };
+    expect(spec.encoding.y.scale.domain).toEqual([-1, 1.3]);
   });
 
   it('turns aria-labels of self-closing paths into titles and leaves other elements alone', () => {
