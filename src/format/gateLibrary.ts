@@ -2,6 +2,7 @@ import { BUILTIN_GATES, OPENQASM_NAMED_GATES, type GateDef } from '../circuit/ga
 import { sequenceUnitary } from '../circuit/compose.js';
 import { RESERVED_NAMES } from '../circuit/expression.js';
 import { unitarityResidual, type CMatrix } from '../linalg/cmatrix.js';
+import { exactNumberText, memoised } from '../linalg/exactKeys.js';
 import { readAngle } from './angles.js';
 import { qubitsOfDimension, readMatrix } from './matrix.js';
 import type { GateDefinition } from '../circuit/circuit.js';
@@ -68,14 +69,7 @@ export class GateLibrary {
   }
 
   private builtinMatrix(b: GateDef, angles: readonly number[]): CMatrix {
-    // String(x) names every double exactly but writes -0 as 0
-    const key = `${b.name}(${angles.map((x) => (Object.is(x, -0) ? '-0' : String(x))).join(',')})`;
-    let m = this.builtinMatrices.get(key);
-    if (m === undefined) {
-      m = b.matrix(angles);
-      this.builtinMatrices.set(key, m);
-    }
-    return m;
+    return memoised(this.builtinMatrices, `${b.name}(${angles.map(exactNumberText).join(',')})`, () => b.matrix(angles));
   }
 
   /** The custom gates that read without problems, as written (angles as expression text). */

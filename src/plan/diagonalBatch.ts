@@ -7,7 +7,7 @@
  * "bins" of qubits A and B; every member must lie inside one bin.
  */
 import type { CMatrix } from '../linalg/cmatrix.js';
-import { numbersKey } from './numbersKey.js';
+import { memoised, numbersKey } from '../linalg/exactKeys.js';
 
 /** Largest number of qubits of one bin (a table of 4^7 complex entries is 256 KiB). */
 export const DIAGONAL_BIN_MAX_QUBITS = 7;
@@ -177,13 +177,5 @@ function diagonalTableKey(members: readonly DiagonalMember[], bin: readonly numb
  */
 export function memoisedDiagonalTable(): (members: readonly DiagonalMember[], bin: readonly number[]) => Float64Array {
   const memo = new Map<string, Float64Array>();
-  return (members, bin) => {
-    const key = diagonalTableKey(members, bin);
-    let t = memo.get(key);
-    if (t === undefined) {
-      t = diagonalTable(members, bin);
-      memo.set(key, t);
-    }
-    return t;
-  };
+  return (members, bin) => memoised(memo, diagonalTableKey(members, bin), () => diagonalTable(members, bin));
 }

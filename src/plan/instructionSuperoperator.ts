@@ -6,7 +6,7 @@
  */
 import { RESET_KRAUS, type Instruction } from '../engine/instruction.js';
 import type { CMatrix } from '../linalg/cmatrix.js';
-import { numbersKey } from './numbersKey.js';
+import { memoised, numbersKey } from '../linalg/exactKeys.js';
 
 
 /** The qubits an instruction acts on, first listed = most significant factor. */
@@ -79,13 +79,5 @@ function superoperatorKey(ins: Instruction): string {
  */
 export function memoisedInstructionSuperoperator(): (ins: Instruction) => CMatrix {
   const memo = new Map<string, CMatrix>();
-  return (ins) => {
-    const key = superoperatorKey(ins);
-    let s = memo.get(key);
-    if (s === undefined) {
-      s = instructionSuperoperator(ins);
-      memo.set(key, s);
-    }
-    return s;
-  };
+  return (ins) => memoised(memo, superoperatorKey(ins), () => instructionSuperoperator(ins));
 }

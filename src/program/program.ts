@@ -9,6 +9,7 @@ import type { NoiseProfile } from '../noise/profile.js';
 import type { IdleWindow, Schedule, TimedOperation } from '../schedule/schedule.js';
 import { buildTimeline } from '../schedule/timeline.js';
 import { frameNoise, type PauliFrame } from '../noise/twirl.js';
+import { exactNumberText, memoised } from '../linalg/exactKeys.js';
 
 export type { Origin } from '../engine/instruction.js';
 
@@ -84,15 +85,8 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
   // gateNoise once per distinct input: every application of one noise entry (a gate name's
   // profile entry, or the same step noise written again) gets the same channels, shared
   const noiseByInput = new Map<string, GateNoise>();
-  const noiseOf = (input: GateNoiseInput): GateNoise => {
-    const key = JSON.stringify([input.k, input.duration, input.thermal, input.decay, input.kinds], exactNumbers);
-    let gn = noiseByInput.get(key);
-    if (gn === undefined) {
-      gn = gateNoise(input);
-      noiseByInput.set(key, gn);
-    }
-    return gn;
-  };
+  const noiseOf = (input: GateNoiseInput): GateNoise =>
+    memoised(noiseByInput, JSON.stringify([input.k, input.duration, input.thermal, input.decay, input.kinds], exactNumbers), () => gateNoise(input));
   const emitIdle = (w: IdleWindow): void => {
     if (profile.idle !== 'thermal') return;
     const ch = idleChannel(decay(w.qubit), w.end - w.start);
@@ -254,5 +248,5 @@ export function buildProgram(circuit: Circuit, profile: NoiseProfile, schedule: 
 
 /** JSON.stringify replacer that writes every number exactly (-0, infinities and NaN included), for cache keys. */
 function exactNumbers(_key: string, v: unknown): unknown {
-  return typeof v === 'number' ? (Object.is(v, -0) ? '-0' : String(v)) : v;
+  return typeof v === 'number' ? exactNumberText(v) : v;
 }

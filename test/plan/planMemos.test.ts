@@ -6,7 +6,7 @@ import { CompositionMemo } from '../../src/plan/compositionMemo.js';
 import { diagonalTable, memoisedDiagonalTable, type DiagonalMember } from '../../src/plan/diagonalBatch.js';
 import { composeEmbedded } from '../../src/plan/embedSuperoperator.js';
 import { instructionSuperoperator, memoisedInstructionSuperoperator } from '../../src/plan/instructionSuperoperator.js';
-import { numbersKey } from '../../src/plan/numbersKey.js';
+import { numbersKey } from '../../src/linalg/exactKeys.js';
 import { mulberry32, randomKraus, randomUnitary, sameBits } from '../engine/helpers.js';
 
 /**
