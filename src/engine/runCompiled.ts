@@ -53,7 +53,7 @@ export function applyCompiled(rho: DensityMatrix, plan: CompiledPlan, pool?: Thr
   const n = rho.n;
   const wantThreads = pool !== undefined && n >= minThreadQubits && rho.data.buffer instanceof SharedArrayBuffer;
   // (a pool beyond WASM_MAX_PARTS parts, which the scratch area cannot serve, runs the JS kernels on the same memory)
-  const reg = wantThreads && Math.floor(pool.threads) > WASM_MAX_PARTS ? undefined : wasmRegisterOf(rho.data);
+  const reg = wantThreads && pool.splitThreads > WASM_MAX_PARTS ? undefined : wasmRegisterOf(rho.data);
   reg?.loadArena(plan.arena);
   const wasm = reg?.bind();
   if (reg === undefined && n >= WARM_MIN_QUBITS) awaitOptimisedKernels();

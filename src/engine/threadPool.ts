@@ -90,7 +90,6 @@ export class ThreadPool {
   ready(): void {
     const want = this.pending;
     if (want === 0) return;
-    this.pending = 0;
     const deadline = Date.now() + WORKER_START_TIMEOUT_MS;
     let ready: number;
     while ((ready = Atomics.load(this.ctrl, CTRL_READY)) < want) {
@@ -98,12 +97,10 @@ export class ThreadPool {
       if (left <= 0) break;
       Atomics.wait(this.ctrl, CTRL_READY, ready, left);
     }
-    if (ready < want) {
+    if (!this.started()) {
       this.note = `worker threads did not start within ${WORKER_START_TIMEOUT_MS} ms`;
       this.close();
-      return;
     }
-    this.parts = want + 1;
   }
 
   /**
@@ -112,6 +109,11 @@ export class ThreadPool {
    * passes on the main thread alone until this turns true, instead of waiting for the workers.
    */
   tryReady(): boolean {
+    return this.started();
+  }
+
+  /** Whether every worker has reported ready; the first time they all have, `parts` becomes final. */
+  private started(): boolean {
     const want = this.pending;
     if (want === 0) return true;
     if (Atomics.load(this.ctrl, CTRL_READY) < want) return false;
@@ -126,7 +128,7 @@ export class ThreadPool {
    * as its threads, the same however fast the workers started).
    */
   get splitThreads(): number {
-    return this.tryReady() ? this.parts : this.pending + 1;
+    return this.started() ? this.parts : this.pending + 1;
   }
 
   /** Number of worker threads (parts − 1). */
